@@ -1,0 +1,81 @@
+/**
+ * Flexshelf command line: the only part of catalog/ that touches the outside world.
+ *   flexshelf evaluate <familyId> '<params JSON>' [--method <id>]
+ *   flexshelf stl <familyId> '<params JSON>' -o part.stl
+ *   flexshelf families
+ * JSON goes to stdout; bad input prints one line per problem on stderr and exits 1.
+ */
+import { writeFileSync } from 'node:fs'
+import { buildGeometry, evaluate, families, serializeStl, SolverError, UnknownFamilyError, ValidationError } from './index'
+
+const USAGE = `usage:
+  flexshelf evaluate <familyId> '<params as JSON>' [--method <method>]
+  flexshelf stl <familyId> '<params as JSON>' -o <file.stl>
+  flexshelf families
+families: ${families.map((f) => f.id).join(', ')}`
+
+class UsageError extends Error {}
+
+function parseJson(text: string | undefined, what: string): unknown {
+  if (text === undefined) return {}
+  try {
+    return JSON.parse(text)
+  } catch (e) {
+    throw new UsageError(`${what} is not valid JSON: ${(e as Error).message}`)
+  }
+}
+
+function takeOption(args: string[], names: string[]): string | undefined {
+  const i = args.findIndex((a) => names.includes(a))
+  if (i < 0) return undefined
+  const value = args[i + 1]
+  if (value === undefined || value.startsWith('-')) throw new UsageError(`${args[i]} needs a value`)
+  args.splice(i, 2)
+  return value
+}
+
+export async function main(argv: string[], out = process.stdout, err = process.stderr): Promise<number> {
+  const args = [...argv]
+  try {
+    const command = args.shift()
+    if (command === 'evaluate') {
+      const method = takeOption(args, ['--method', '-m'])
+      const [familyId, json] = args
+      if (!familyId) throw new UsageError('evaluate needs a family id')
+      const result = evaluate(familyId, parseJson(json, 'params'), { method })
+      out.write(JSON.stringify(result, null, 2) + '\n')
+      return 0
+    }
+    if (command === 'stl') {
+      const file = takeOption(args, ['-o', '--output'])
+      const [familyId, json] = args
+      if (!familyId) throw new UsageError('stl needs a family id')
+      if (!file) throw new UsageError('stl needs an output file: -o part.stl')
+      const bytes = serializeStl(buildGeometry(familyId, parseJson(json, 'params')))
+      writeFileSync(file, bytes)
+      err.write(`wrote ${file} (${bytes.byteLength} bytes, ${(bytes.byteLength - 84) / 50} triangles)\n`)
+      return 0
+    }
+    if (command === 'families') {
+      out.write(JSON.stringify(families.map((f) => ({ id: f.id, name: f.name, kind: f.kind, methods: f.methods.map((m) => m.id) })), null, 2) + '\n')
+      return 0
+    }
+    throw new UsageError(command ? `unknown command "${command}"` : 'no command given')
+  } catch (e) {
+    if (e instanceof ValidationError) {
+      for (const issue of e.issues) err.write(`${issue.field}: ${issue.message}\n`)
+    } else if (e instanceof UsageError) {
+      err.write(`${e.message}\n${USAGE}\n`)
+    } else if (e instanceof UnknownFamilyError || e instanceof SolverError) {
+      err.write(`${e.message}\n`)
+    } else {
+      err.write(`unexpected error: ${(e as Error).stack ?? String(e)}\n`)
+    }
+    return 1
+  }
+}
+
+// Run only when executed directly, so tests can import main().
+if (process.argv[1] && /cli\.[tj]s$/.test(process.argv[1])) {
+  main(process.argv.slice(2)).then((code) => { process.exitCode = code })
+}

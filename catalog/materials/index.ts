@@ -1,0 +1,2 @@
+export type { Material } from './types'
+export { builtinMaterials, findBuiltinMaterial } from './builtin'

@@ -1,0 +1,24 @@
+import { fileURLToPath, URL } from 'node:url'
+import { defineConfig } from 'vite'
+import vue from '@vitejs/plugin-vue'
+
+const apiPort = process.env.PORT ?? '3000'
+
+export default defineConfig({
+  root: fileURLToPath(new URL('./web', import.meta.url)),
+  plugins: [vue()],
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./web/src', import.meta.url)),
+      '@catalog': fileURLToPath(new URL('./catalog', import.meta.url)),
+    },
+  },
+  build: {
+    outDir: fileURLToPath(new URL('./dist/web', import.meta.url)),
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 900,
+  },
+  server: {
+    proxy: { '/api': `http://127.0.0.1:${apiPort}` },
+  },
+})
