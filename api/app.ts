@@ -1,0 +1,36 @@
+/**
+ * Builds the Express app; starting it is server.ts's job, so tests mount it with supertest.
+ * Order: JSON body parser, deny-by-default sign-in check, resource routers, JSON 404 for
+ * /api, the web app, a JSON 404 for everything else, and the one error handler last.
+ */
+import express, { type Express } from 'express'
+import type { AppContext } from './context'
+import { authenticate } from './middleware/authenticate'
+import { errorHandler } from './middleware/error-handler'
+import { notFound } from './middleware/not-found'
+import { apiRouters } from './routes'
+import { serveWebApp } from './web'
+
+export interface AppOptions {
+  /** Where server errors are logged (tests capture them). */
+  log?: (err: unknown) => void
+}
+
+export function createApp(context: AppContext, options: AppOptions = {}): Express {
+  const app = express()
+  app.disable('x-powered-by')
+  // one hop of reverse proxy at most; the sign-in limit keys on the client address
+  app.set('trust proxy', 'loopback')
+
+  const api = express.Router()
+  api.use(express.json({ limit: context.config.bodyLimit }))
+  api.use(authenticate(context))
+  for (const { path, router } of apiRouters(context)) api.use(path, router)
+  api.use(notFound)
+  app.use('/api', api)
+
+  serveWebApp(app, context.config.webDir)
+  app.use(notFound)
+  app.use(errorHandler(options.log))
+  return app
+}

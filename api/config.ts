@@ -1,0 +1,111 @@
+/**
+ * Server configuration, read once from the environment at start-up.
+ * Tests build one with loadConfig({ FLEXSHELF_DATA: <temp dir> }, { bcryptCost: 4 }).
+ */
+import { randomBytes } from 'node:crypto'
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { dirname, join, resolve } from 'node:path'
+import { fileURLToPath } from 'node:url'
+
+export interface Config {
+  production: boolean
+  port: number
+  /** Folder holding the database, uploads and the development JWT secret. */
+  dataDir: string
+  databaseFile: string
+  uploadsDir: string
+  /** Where vite puts the built web app. */
+  webDir: string
+  jwtSecret: string
+  /** jsonwebtoken expiresIn: sessions last a working day. */
+  jwtExpiresIn: string
+  bcryptCost: number
+  signinRateLimit: { windowMs: number; limit: number }
+  /** express.json limit for every API body. */
+  bodyLimit: string
+  version: string
+  /** Seed the demo users, materials and entries at start-up (never in production). */
+  seedDemo: boolean
+}
+
+/** bcrypt cost of 2^12 rounds: about a quarter second per hash on a laptop core. */
+export const DEFAULT_BCRYPT_COST = 12
+export const MIN_PRODUCTION_SECRET_LENGTH = 32
+const JWT_SECRET_FILE = 'jwt-secret'
+
+const projectRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..')
+
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message)
+    this.name = 'ConfigError'
+  }
+}
+
+function readVersion(): string {
+  const pkg = JSON.parse(readFileSync(join(projectRoot, 'package.json'), 'utf8')) as { version?: string }
+  return pkg.version ?? '0.0.0'
+}
+
+function parseInteger(value: string | undefined, name: string, fallback: number, min: number, max: number): number {
+  if (value === undefined || value === '') return fallback
+  const n = Number(value)
+  if (!Number.isInteger(n) || n < min || n > max) throw new ConfigError(`${name} must be a whole number from ${min} to ${max} (got "${value}")`)
+  return n
+}
+
+/**
+ * The secret from FLEXSHELF_JWT_SECRET; outside production a generated one kept in the
+ * data folder, so restarting the development server keeps everyone signed in.
+ */
+function resolveJwtSecret(env: NodeJS.ProcessEnv, dataDir: string, production: boolean): string {
+  const given = env.FLEXSHELF_JWT_SECRET
+  if (given) {
+    if (production && given.length < MIN_PRODUCTION_SECRET_LENGTH) {
+      throw new ConfigError(`FLEXSHELF_JWT_SECRET must be at least ${MIN_PRODUCTION_SECRET_LENGTH} characters in production`)
+    }
+    return given
+  }
+  if (production) {
+    throw new ConfigError('FLEXSHELF_JWT_SECRET must be set in production (a random string of at least 32 characters); refusing to start')
+  }
+  const file = join(dataDir, JWT_SECRET_FILE)
+  try {
+    return readFileSync(file, 'utf8').trim()
+  } catch {
+    mkdirSync(dataDir, { recursive: true })
+    const secret = randomBytes(48).toString('base64url')
+    try {
+      // 'wx': if another process wrote it first, read theirs instead
+      writeFileSync(file, secret + '\n', { mode: 0o600, flag: 'wx' })
+      return secret
+    } catch {
+      return readFileSync(file, 'utf8').trim()
+    }
+  }
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
+  const production = env.NODE_ENV === 'production'
+  const dataDir = resolve(env.FLEXSHELF_DATA || join(projectRoot, 'data'))
+  const config: Config = {
+    production,
+    port: parseInteger(env.PORT, 'PORT', 3000, 0, 65535),
+    dataDir,
+    databaseFile: join(dataDir, 'flexshelf.sqlite'),
+    uploadsDir: join(dataDir, 'uploads'),
+    webDir: join(projectRoot, 'dist', 'web'),
+    jwtSecret: overrides.jwtSecret ?? resolveJwtSecret(env, dataDir, production),
+    jwtExpiresIn: '8h',
+    bcryptCost: parseInteger(env.FLEXSHELF_BCRYPT_COST, 'FLEXSHELF_BCRYPT_COST', DEFAULT_BCRYPT_COST, 10, 15),
+    signinRateLimit: {
+      windowMs: parseInteger(env.FLEXSHELF_SIGNIN_WINDOW_MS, 'FLEXSHELF_SIGNIN_WINDOW_MS', 15 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),
+      limit: parseInteger(env.FLEXSHELF_SIGNIN_LIMIT, 'FLEXSHELF_SIGNIN_LIMIT', 10, 1, 10000),
+    },
+    bodyLimit: '256kb',
+    version: readVersion(),
+    seedDemo: !production,
+    ...overrides,
+  }
+  return config
+}

@@ -1,0 +1,51 @@
+import type { Sequelize } from 'sequelize'
+import { AuditEvent } from './audit-event'
+import { Entry } from './entry'
+import { EntryRevision } from './entry-revision'
+import { Material } from './material'
+import { RevokedToken } from './revoked-token'
+import { SavedConfiguration } from './saved-configuration'
+import { TestReport } from './test-report'
+import { User } from './user'
+
+export { AuditEvent, Entry, EntryRevision, Material, RevokedToken, SavedConfiguration, TestReport, User }
+export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './entry'
+export { ImmutableRevisionError } from './entry-revision'
+export { REPORT_STATUSES, type ReportStatus } from './test-report'
+
+/**
+ * Binds the models to one database. Each database gets its own subclasses, so two
+ * databases (a test's and a migration check's) can be open in one process.
+ */
+export function defineModels(sequelize: Sequelize) {
+  const models = {
+    User: class extends User {},
+    Material: class extends Material {},
+    Entry: class extends Entry {},
+    EntryRevision: class extends EntryRevision {},
+    TestReport: class extends TestReport {},
+    SavedConfiguration: class extends SavedConfiguration {},
+    AuditEvent: class extends AuditEvent {},
+    RevokedToken: class extends RevokedToken {},
+  }
+  for (const model of Object.values(models)) model.initModel(sequelize)
+  const m = models
+
+  m.Entry.belongsTo(m.User, { as: 'owner', foreignKey: 'ownerId' })
+  m.Entry.hasMany(m.EntryRevision, { as: 'revisions', foreignKey: 'entryId' })
+  m.Entry.belongsTo(m.EntryRevision, { as: 'currentRevision', foreignKey: 'currentRevisionId', constraints: false })
+  m.Entry.hasMany(m.TestReport, { as: 'reports', foreignKey: 'entryId' })
+  m.EntryRevision.belongsTo(m.Entry, { as: 'entry', foreignKey: 'entryId' })
+  m.EntryRevision.belongsTo(m.User, { as: 'createdBy', foreignKey: 'createdById' })
+  m.TestReport.belongsTo(m.Entry, { as: 'entry', foreignKey: 'entryId' })
+  m.TestReport.belongsTo(m.EntryRevision, { as: 'revision', foreignKey: 'revisionId' })
+  m.TestReport.belongsTo(m.User, { as: 'uploader', foreignKey: 'uploaderId' })
+  m.TestReport.belongsTo(m.User, { as: 'reviewer', foreignKey: 'reviewerId' })
+  m.SavedConfiguration.belongsTo(m.User, { as: 'owner', foreignKey: 'ownerId' })
+  m.SavedConfiguration.belongsTo(m.Entry, { as: 'entry', foreignKey: 'entryId' })
+  m.SavedConfiguration.belongsTo(m.EntryRevision, { as: 'revision', foreignKey: 'revisionId' })
+  m.AuditEvent.belongsTo(m.User, { as: 'actor', foreignKey: 'actorId' })
+  return models
+}
+
+export type Models = ReturnType<typeof defineModels>

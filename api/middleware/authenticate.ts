@@ -1,0 +1,52 @@
+/**
+ * Deny by default: every /api request needs a valid bearer token, except the few routes
+ * on the public list. Unknown routes are refused too (401 before 404), so nothing new is
+ * ever reachable anonymously by accident.
+ */
+import type { NextFunction, Request, RequestHandler, Response } from 'express'
+import type { AppContext } from '../context'
+import { unauthenticated } from '../errors'
+import { authenticateToken, type Authenticated } from '../services/auth'
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      /** Set by authenticate for every non-public request. */
+      auth?: Authenticated
+    }
+  }
+}
+
+/** method + path (relative to /api) of the routes that need no sign-in. */
+export const PUBLIC_ROUTES: ReadonlyArray<{ method: string; path: string }> = [
+  { method: 'GET', path: '/health' },
+  { method: 'POST', path: '/auth/signup' },
+  { method: 'POST', path: '/auth/signin' },
+]
+
+function isPublic(req: Request): boolean {
+  const method = req.method === 'HEAD' ? 'GET' : req.method
+  const path = req.path.length > 1 ? req.path.replace(/\/+$/, '') : req.path
+  return PUBLIC_ROUTES.some((r) => r.method === method && r.path === path)
+}
+
+const BEARER = /^Bearer ([A-Za-z0-9_\-.]+)$/
+
+export function authenticate(context: AppContext): RequestHandler {
+  return async function authenticateRequest(req: Request, _res: Response, next: NextFunction) {
+    if (isPublic(req)) return next()
+    const header = req.get('authorization')
+    if (!header) throw unauthenticated('sign in first (no Authorization: Bearer token)')
+    const match = BEARER.exec(header)
+    if (!match) throw unauthenticated('the Authorization header must be "Bearer <token>"')
+    req.auth = await authenticateToken(context, match[1])
+    next()
+  }
+}
+
+/** The signed-in user of a request that passed authenticate. */
+export function currentAuth(req: Request): Authenticated {
+  if (!req.auth) throw unauthenticated()
+  return req.auth
+}

@@ -1,0 +1,22 @@
+import type { Router } from 'express'
+import type { AppContext } from '../context'
+import { auditRouter } from './audit'
+import { authRouter } from './auth'
+import { entriesRouter } from './entries'
+import { familiesRouter } from './families'
+import { healthRouter } from './health'
+import { materialsRouter } from './materials'
+import { usersRouter } from './users'
+
+/** Every resource router and where it is mounted (relative to /api). */
+export function apiRouters(context: AppContext): Array<{ path: string; router: Router }> {
+  return [
+    { path: '/health', router: healthRouter(context) },
+    { path: '/auth', router: authRouter(context) },
+    { path: '/users', router: usersRouter(context) },
+    { path: '/families', router: familiesRouter(context) },
+    { path: '/materials', router: materialsRouter(context) },
+    { path: '/entries', router: entriesRouter(context) },
+    { path: '/audit', router: auditRouter(context) },
+  ]
+}

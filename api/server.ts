@@ -1,0 +1,48 @@
+/**
+ * The server entry: configuration from the environment, open and migrate the database,
+ * seed the demo data (not in production), listen.
+ */
+import { mkdirSync } from 'node:fs'
+import { createApp } from './app'
+import { ConfigError, loadConfig } from './config'
+import { openDatabase } from './db'
+import { seedDemoData } from './db/seed'
+
+async function main(): Promise<void> {
+  const config = loadConfig()
+  mkdirSync(config.uploadsDir, { recursive: true })
+  const db = await openDatabase(config.databaseFile)
+  const context = { config, db }
+
+  if (config.seedDemo) {
+    const report = await seedDemoData(context)
+    console.log(`Demo data: ${report.usersCreated} users, ${report.materialsCreated} materials, ${report.entriesCreated} entries added`)
+    for (const s of report.skipped) console.warn(`Demo entry "${s.name}" (${s.familyId}) not seeded: ${s.reason}`)
+    if (report.familiesPending.length) console.log(`Demo entries waiting for families: ${report.familiesPending.join(', ')}`)
+  }
+
+  const app = createApp(context)
+  const server = app.listen(config.port, () => {
+    const address = server.address()
+    const port = typeof address === 'object' && address ? address.port : config.port
+    console.log(`Flexshelf is running at http://localhost:${port}`)
+  })
+  server.on('error', (err) => {
+    console.error(`Flexshelf could not listen on port ${config.port}: ${err.message}`)
+    process.exit(1)
+  })
+
+  const shutdown = () => {
+    server.close(() => {
+      db.close().finally(() => process.exit(0))
+    })
+  }
+  process.on('SIGINT', shutdown)
+  process.on('SIGTERM', shutdown)
+}
+
+main().catch((err) => {
+  if (err instanceof ConfigError) console.error(`Flexshelf cannot start: ${err.message}`)
+  else console.error('Flexshelf cannot start:', err)
+  process.exit(1)
+})

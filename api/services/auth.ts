@@ -1,0 +1,137 @@
+/**
+ * Sign-up, sign-in, sign-out and token checks. Tokens are HS256 JWTs carrying the user id,
+ * the user's tokenVersion (bumped on a role change) and a jti (listed when signed out).
+ */
+import { randomUUID } from 'node:crypto'
+import bcrypt from 'bcryptjs'
+import jwt from 'jsonwebtoken'
+import { Op } from 'sequelize'
+import { z } from 'zod'
+import type { AppContext } from '../context'
+import type { User } from '../db'
+import { HttpError, unauthenticated } from '../errors'
+import { bodySchema, parseBody, textField } from '../validation'
+import { recordAudit } from './audit'
+import { toUserView, type UserView } from './users'
+
+export const PASSWORD_MIN_LENGTH = 10
+/** bcrypt reads only the first 72 bytes of a password; longer ones would be silently cut. */
+export const PASSWORD_MAX_BYTES = 72
+const JWT_ALGORITHM = 'HS256' as const
+const WRONG_CREDENTIALS = 'e-mail or password is wrong'
+
+export const emailField = z
+  .string({ error: (iss) => (iss.input === undefined ? 'email is required' : 'email must be text') })
+  .trim()
+  .toLowerCase()
+  .max(254, 'email must be at most 254 characters')
+  .email({ error: 'email must be an e-mail address' })
+
+export const newPasswordField = z
+  .string({ error: (iss) => (iss.input === undefined ? 'password is required' : 'password must be text') })
+  .min(PASSWORD_MIN_LENGTH, `password must be at least ${PASSWORD_MIN_LENGTH} characters`)
+  .refine((v) => Buffer.byteLength(v, 'utf8') <= PASSWORD_MAX_BYTES, {
+    message: `password must be at most ${PASSWORD_MAX_BYTES} bytes (bcrypt uses only the first ${PASSWORD_MAX_BYTES})`,
+  })
+
+const signupBody = bodySchema({ email: emailField, password: newPasswordField, displayName: textField('displayName', 80) })
+
+const signinBody = bodySchema({
+  email: emailField,
+  password: z.string({ error: (iss) => (iss.input === undefined ? 'password is required' : 'password must be text') })
+    .min(1, 'password is required').max(1024, 'password is too long'),
+})
+
+export interface Session {
+  token: string
+  user: UserView
+}
+
+export interface Authenticated {
+  user: User
+  jti: string
+  expiresAt: Date
+}
+
+interface Claims {
+  sub: string
+  ver: number
+  jti: string
+  exp: number
+}
+
+export function hashPassword(context: AppContext, password: string): Promise<string> {
+  return bcrypt.hash(password, context.config.bcryptCost)
+}
+
+export function issueToken(context: AppContext, user: User): string {
+  return jwt.sign({ ver: user.tokenVersion }, context.config.jwtSecret, {
+    algorithm: JWT_ALGORITHM,
+    expiresIn: context.config.jwtExpiresIn as jwt.SignOptions['expiresIn'],
+    subject: String(user.id),
+    jwtid: randomUUID(),
+  })
+}
+
+export async function signUp(context: AppContext, body: unknown): Promise<Session> {
+  const input = parseBody(signupBody, body)
+  const passwordHash = await hashPassword(context, input.password)
+  const { User } = context.db.models
+  const user = await context.db.write(async (transaction) => {
+    const existing = await User.findOne({ where: { email: input.email }, transaction })
+    if (existing) throw new HttpError(409, 'conflict', 'an account with this e-mail already exists', { field: 'email' })
+    // sign-up always makes an engineer; higher roles are granted by an admin
+    const created = await User.create({ email: input.email, passwordHash, displayName: input.displayName, role: 'engineer' }, { transaction })
+    await recordAudit(context, transaction, { actorId: created.id, action: 'user.signup', subjectType: 'user', subjectId: created.id, details: { email: created.email } })
+    return created
+  })
+  return { token: issueToken(context, user), user: toUserView(user) }
+}
+
+// compared against when the e-mail is unknown, so both failures take the same time
+let dummyHash: Promise<string> | undefined
+
+export async function signIn(context: AppContext, body: unknown): Promise<Session> {
+  const input = parseBody(signinBody, body)
+  const user = await context.db.models.User.findOne({ where: { email: input.email } })
+  if (!user) {
+    dummyHash ??= bcrypt.hash('not-a-password-of-anyone', context.config.bcryptCost)
+    await bcrypt.compare(input.password, await dummyHash)
+    throw unauthenticated(WRONG_CREDENTIALS)
+  }
+  if (!(await bcrypt.compare(input.password, user.passwordHash))) throw unauthenticated(WRONG_CREDENTIALS)
+  return { token: issueToken(context, user), user: toUserView(user) }
+}
+
+function verifyClaims(context: AppContext, token: string): Claims {
+  try {
+    const claims = jwt.verify(token, context.config.jwtSecret, { algorithms: [JWT_ALGORITHM] })
+    if (typeof claims === 'string' || !claims.sub || !claims.jti || typeof claims.ver !== 'number' || typeof claims.exp !== 'number') {
+      throw new Error('token is missing claims')
+    }
+    return { sub: claims.sub, ver: claims.ver, jti: claims.jti, exp: claims.exp }
+  } catch (err) {
+    if (err instanceof jwt.TokenExpiredError) throw unauthenticated('your session has expired; sign in again')
+    throw unauthenticated('the sign-in token is not valid; sign in again')
+  }
+}
+
+/** Checks a bearer token: signature, expiry, not signed out, user present, role unchanged. */
+export async function authenticateToken(context: AppContext, token: string): Promise<Authenticated> {
+  const claims = verifyClaims(context, token)
+  const { User, RevokedToken } = context.db.models
+  if (await RevokedToken.findByPk(claims.jti)) throw unauthenticated('this session has been signed out; sign in again')
+  const user = await User.findByPk(Number(claims.sub))
+  if (!user) throw unauthenticated('the account no longer exists')
+  if (user.tokenVersion !== claims.ver) throw unauthenticated('your role has changed; sign in again')
+  return { user, jti: claims.jti, expiresAt: new Date(claims.exp * 1000) }
+}
+
+/** Revokes the token; its id is kept until it would have expired anyway. */
+export async function signOut(context: AppContext, auth: Authenticated): Promise<void> {
+  const { RevokedToken } = context.db.models
+  await context.db.write(async (transaction) => {
+    await RevokedToken.destroy({ where: { expiresAt: { [Op.lt]: new Date() } }, transaction })
+    await RevokedToken.findOrCreate({ where: { jti: auth.jti }, defaults: { jti: auth.jti, expiresAt: auth.expiresAt }, transaction })
+  })
+}

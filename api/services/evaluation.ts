@@ -1,0 +1,23 @@
+/**
+ * Evaluation through the engineering core, with material ids resolved to the curated
+ * numbers in the database (a librarian's calibrated PETG wins over the built-in one).
+ */
+import { z } from 'zod'
+import { evaluate, type Evaluation } from '../../catalog'
+import type { AppContext } from '../context'
+import { bodySchema, parseBody } from '../validation'
+import { findFamily } from './families'
+import { listMaterials } from './materials'
+
+const evaluateBody = bodySchema({
+  params: z.record(z.string(), z.unknown(), { error: 'params must be a JSON object of parameter values' }).optional(),
+  method: z.string({ error: 'method must be text (a method id of the family)' }).min(1, 'method must not be empty').max(64).optional(),
+})
+
+export async function evaluateFamily(context: AppContext, familyId: string, body: unknown): Promise<Evaluation> {
+  const family = findFamily(familyId)
+  const input = parseBody(evaluateBody, body)
+  const materials = await listMaterials(context)
+  return evaluate(family.id, input.params ?? {}, { method: input.method, materials })
+}
+
