@@ -1,0 +1,143 @@
+/**
+ * Circular notch hinge under a pure bending moment: Paros & Weisbord, "How to design flexure
+ * hinges", Machine Design 37:151–156, 1965 (the same integral in Lobontiu, Compliant
+ * Mechanisms: Design of Flexure Hinges, CRC 2003), full and thin-neck forms.
+ */
+import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+
+const DEG = 180 / Math.PI
+/** Points along the curve. */
+export const CURVE_POINTS = 41
+/** The curve runs this far past the strain-limit rotation, so the limit sits inside the plot. */
+export const CURVE_EXTENT = 1.2
+/** Rotations beyond this are outside a notch hinge's working range (the cut faces close in); the range is capped here. */
+export const ROTATION_CAP_DEG = 30
+/** Simplified-form error above which a warning is given. */
+const SIMPLIFIED_TOLERANCE = 0.05
+/** Above this t/R the neck is short and the beam strain misses the notch's stress concentration (common practice). */
+const THICK_NECK_RATIO = 0.5
+
+export const methods: MethodInfo[] = [
+  {
+    id: 'paros-weisbord',
+    label: 'Paros–Weisbord (full)',
+    source: 'Paros & Weisbord, How to design flexure hinges, Machine Design 37:151–156, 1965 (full circular-notch compliance; also Lobontiu, Compliant Mechanisms: Design of Flexure Hinges, CRC 2003)',
+  },
+  {
+    id: 'paros-weisbord-simplified',
+    label: 'Paros–Weisbord (thin neck)',
+    source: 'Paros & Weisbord, Machine Design 37:151–156, 1965, simplified form for a neck much thinner than the notch radius',
+  },
+]
+
+export const metrics: MetricSpec[] = [
+  { key: 'rotationalStiffness', label: 'Rotational stiffness', unit: 'N·mm/rad', help: 'Moment per radian of rotation of one side of the notch against the other.' },
+  { key: 'maxRotation', label: 'Largest rotation', unit: 'deg', help: 'Rotation at which the neck reaches the strain limit (or the end of the working range).' },
+  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Bending strain at the neck at the largest rotation (a fraction).' },
+  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest rotation.' },
+]
+
+export const axes: { displacement: AxisSpec; force: AxisSpec } = {
+  displacement: { label: 'Rotation', unit: 'deg' },
+  force: { label: 'Moment', unit: 'N·mm' },
+}
+
+/**
+ * Full Paros–Weisbord compliance θ/M (rad per N·mm), β = t/(2R):
+ * θ/M = (3/(2EbR²))·(1/(2β+β²))·[(3+4β+2β²)/((1+β)(2β+β²)) + (6(1+β)/(2β+β²)^{3/2})·atan√((2+β)/β)].
+ * The prefactor is 3/(2EbR²); a 12/(EbR²) version in circulation is 8× too large.
+ */
+export function parosWeisbordCompliance(modulus: number, depth: number, radius: number, neck: number): number {
+  const beta = neck / (2 * radius)
+  const g = 2 * beta + beta * beta
+  const bracket = (3 + 4 * beta + 2 * beta * beta) / ((1 + beta) * g)
+    + ((6 * (1 + beta)) / g ** 1.5) * Math.atan(Math.sqrt((2 + beta) / beta))
+  return (3 / (2 * modulus * depth * radius * radius)) * (bracket / g)
+}
+
+/** Thin-neck Paros–Weisbord compliance (t ≪ R): θ/M = 9π R^{1/2}/(2 E b t^{5/2}). */
+export function parosWeisbordSimplifiedCompliance(modulus: number, depth: number, radius: number, neck: number): number {
+  return (9 * Math.PI * Math.sqrt(radius)) / (2 * modulus * depth * neck ** 2.5)
+}
+
+/** Bending strain at the neck under moment M: ε = 6M/(E b t²). */
+export function neckStrain(moment: number, modulus: number, depth: number, neck: number): number {
+  return (6 * moment) / (modulus * depth * neck * neck)
+}
+
+/** True when the block is thinner than neck + 2·radius, so the cuts are shallower than half circles. */
+export function isShallowNotch(params: Record<string, number>): boolean {
+  return params.blockThickness < params.neckThickness + 2 * params.radius
+}
+
+export interface RangeResult {
+  /** Largest rotation in the working range, rad. */
+  maxRotation: number
+  /** Whether the strain limit (true) or the rotation cap (false) set it. */
+  strainGoverned: boolean
+}
+
+/** Rotation at the strain limit for a linear moment–rotation law, capped at the working range. */
+export function rotationRange(compliance: number, modulus: number, depth: number, neck: number, strainLimit: number): RangeResult {
+  const limitMoment = (strainLimit * modulus * depth * neck * neck) / 6
+  const atLimit = compliance * limitMoment
+  const cap = ROTATION_CAP_DEG / DEG
+  return atLimit <= cap ? { maxRotation: atLimit, strainGoverned: true } : { maxRotation: cap, strainGoverned: false }
+}
+
+/** Warnings shared by every method: the notch shape and the neck's beam strain. */
+export function commonWarnings(params: Record<string, number>, range: RangeResult): string[] {
+  const warnings: string[] = []
+  const { radius, neckThickness } = params
+  if (neckThickness / radius > THICK_NECK_RATIO) {
+    warnings.push(`The neck is thick for its notch (t/R = ${(neckThickness / radius).toFixed(2)}): beam strain at the neck misses the notch's stress concentration, so the true peak strain is higher (common practice); confirm on a printed part.`)
+  }
+  if (!range.strainGoverned) {
+    warnings.push(`The strain limit is not reached within ${ROTATION_CAP_DEG}° of rotation; the largest rotation is capped at the end of the notch's working range.`)
+  }
+  return warnings
+}
+
+function closedForm(params: Record<string, number>, modulus: number, strainLimit: number, simplified: boolean): ModelOutput {
+  const { radius, neckThickness, depth } = params
+  const full = parosWeisbordCompliance(modulus, depth, radius, neckThickness)
+  const thin = parosWeisbordSimplifiedCompliance(modulus, depth, radius, neckThickness)
+  const compliance = simplified ? thin : full
+  const range = rotationRange(compliance, modulus, depth, neckThickness, strainLimit)
+  const warnings = commonWarnings(params, range)
+  if (simplified && thin / full - 1 > SIMPLIFIED_TOLERANCE) {
+    warnings.push(`The thin-neck form assumes neckThickness ≪ radius; at t/R = ${(neckThickness / radius).toFixed(2)} it overstates the compliance by ${Math.round(100 * (thin / full - 1))} % against the full Paros–Weisbord form (use paros-weisbord).`)
+  }
+  if (isShallowNotch(params)) {
+    warnings.push(`The block (${params.blockThickness} mm) is thinner than neckThickness + 2·radius (${neckThickness + 2 * radius} mm), so the cuts are shallower than half circles; the Paros–Weisbord forms assume half circles and overstate the compliance a little (nonlinear-fe follows the actual profile).`)
+  }
+
+  // Pure moment: M = θ/C holds to large rotation in beam theory (curvature M/EI integrates to θ).
+  const end = range.maxRotation * (range.strainGoverned ? CURVE_EXTENT : 1)
+  const displacement: number[] = []
+  const force: number[] = []
+  const strain: number[] = []
+  for (let i = 0; i < CURVE_POINTS; i++) {
+    const theta = (end * i) / (CURVE_POINTS - 1)
+    const moment = theta / compliance
+    displacement.push(theta * DEG)
+    force.push(moment)
+    strain.push(neckStrain(moment, modulus, depth, neckThickness))
+  }
+  const peakStrain = neckStrain(range.maxRotation / compliance, modulus, depth, neckThickness)
+  return {
+    curve: { displacement, force, strain, axes },
+    metrics: {
+      rotationalStiffness: 1 / compliance,
+      maxRotation: range.maxRotation * DEG,
+      maxStrain: peakStrain,
+      safetyFactor: strainLimit / peakStrain,
+    },
+    warnings,
+  }
+}
+
+export function evaluate({ params, material, method }: ModelInput): ModelOutput {
+  if (method === 'paros-weisbord-simplified') return closedForm(params, material.modulus, material.strainLimit, true)
+  return closedForm(params, material.modulus, material.strainLimit, false)
+}

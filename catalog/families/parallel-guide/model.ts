@@ -1,0 +1,108 @@
+/**
+ * Parallel-blade guide: two fixed-guided blades carrying a rigid stage, pushed across the blades.
+ * Small travel: Roark's Formulas for Stress and Strain (Young & Budynas, 7th ed., 2002),
+ * fixed-guided beam k = 12EI/L³, two in parallel; parasitic shortening u = (3/5)δ²/L from the
+ * beam constraint model of Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007.
+ */
+import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+
+export const CURVE_POINTS = 41
+/** The curve runs this far past the strain-limit travel, so the limit sits inside the plot. */
+export const CURVE_EXTENT = 1.2
+/** Travel beyond this fraction of the blade length is outside the guide's working range (capped). */
+export const TRAVEL_CAP_RATIO = 0.4
+/** The beam constraint model is stated for transverse travel up to about a tenth of the length (Awtar et al. 2007). */
+const LINEAR_RANGE_RATIO = 0.1
+
+export const methods: MethodInfo[] = [
+  {
+    id: 'linear',
+    label: 'Linear beam theory',
+    source: 'Roark\u2019s Formulas for Stress and Strain (Young & Budynas, 7th ed., 2002): fixed-guided beam 12EI/L³, two blades in parallel; parasitic shortening (3/5)δ²/L per Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007',
+  },
+]
+
+export const metrics: MetricSpec[] = [
+  { key: 'stiffness', label: 'Stiffness', unit: 'N/mm', help: 'Force per mm of stage travel for small travel.' },
+  { key: 'maxTravel', label: 'Largest travel', unit: 'mm', help: 'Stage travel at which the blades reach the strain limit (or the end of the working range).' },
+  { key: 'parasiticMotion', label: 'Parasitic motion', unit: 'mm', help: 'How far the stage is pulled towards the base (blade shortening) at the largest travel.' },
+  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Largest strain in the blades at the largest travel (a fraction).' },
+  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest travel.' },
+]
+
+export const axes: { displacement: AxisSpec; force: AxisSpec } = {
+  displacement: { label: 'Stage travel', unit: 'mm' },
+  force: { label: 'Force', unit: 'N' },
+}
+
+/** Second moment of area of one blade, b t³/12 (mm⁴). */
+export function bladeInertia(params: Record<string, number>): number {
+  return (params.depth * params.thickness ** 3) / 12
+}
+
+/** Two fixed-guided blades in parallel: k = 2 × 12EI/L³ (Roark 7th ed.). */
+export function linearStiffness(params: Record<string, number>, modulus: number): number {
+  return (24 * modulus * bladeInertia(params)) / params.length ** 3
+}
+
+/** Peak bending strain of a fixed-guided blade at travel δ: M = 6EIδ/L² at both ends, ε = 3tδ/L². */
+export function linearStrain(params: Record<string, number>, travel: number): number {
+  return (3 * params.thickness * travel) / params.length ** 2
+}
+
+/** Parasitic shortening of a fixed-guided blade, u = (3/5)δ²/L (Awtar et al. 2007, no axial load). */
+export function parasiticShortening(length: number, travel: number): number {
+  return (0.6 * travel * travel) / length
+}
+
+export interface TravelRange {
+  maxTravel: number
+  strainGoverned: boolean
+}
+
+/** Travel at the strain limit, capped at the working range. */
+export function linearTravelRange(params: Record<string, number>, strainLimit: number): TravelRange {
+  const atLimit = (strainLimit * params.length ** 2) / (3 * params.thickness)
+  const cap = TRAVEL_CAP_RATIO * params.length
+  return atLimit <= cap ? { maxTravel: atLimit, strainGoverned: true } : { maxTravel: cap, strainGoverned: false }
+}
+
+export function capWarning(params: Record<string, number>): string {
+  return `The strain limit is not reached within ${TRAVEL_CAP_RATIO * 100} % of the blade length (${(TRAVEL_CAP_RATIO * params.length).toPrecision(3)} mm) of travel; the largest travel is capped at the end of the guide's working range.`
+}
+
+function linear(params: Record<string, number>, modulus: number, strainLimit: number): ModelOutput {
+  const k = linearStiffness(params, modulus)
+  const range = linearTravelRange(params, strainLimit)
+  const warnings: string[] = []
+  if (!range.strainGoverned) warnings.push(capWarning(params))
+  if (range.maxTravel > LINEAR_RANGE_RATIO * params.length) {
+    warnings.push(`The largest travel is ${Math.round((100 * range.maxTravel) / params.length)} % of the blade length: linear theory and the (3/5)δ²/L shortening hold for travel up to about ${LINEAR_RANGE_RATIO * 100} % (Awtar et al. 2007); use nonlinear-fe for the curve at large travel.`)
+  }
+  const end = range.maxTravel * (range.strainGoverned ? CURVE_EXTENT : 1)
+  const displacement: number[] = []
+  const force: number[] = []
+  const strain: number[] = []
+  for (let i = 0; i < CURVE_POINTS; i++) {
+    const d = (end * i) / (CURVE_POINTS - 1)
+    displacement.push(d)
+    force.push(k * d)
+    strain.push(linearStrain(params, d))
+  }
+  const peakStrain = linearStrain(params, range.maxTravel)
+  return {
+    curve: { displacement, force, strain, axes },
+    metrics: {
+      stiffness: k,
+      maxTravel: range.maxTravel,
+      parasiticMotion: parasiticShortening(params.length, range.maxTravel),
+      maxStrain: peakStrain,
+      safetyFactor: strainLimit / peakStrain,
+    },
+    warnings,
+  }
+}
+
+export function evaluate({ params, material }: ModelInput): ModelOutput {
+  return linear(params, material.modulus, material.strainLimit)
+}
