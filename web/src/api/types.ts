@@ -1,0 +1,96 @@
+/** Shapes of the Flexshelf HTTP API (docs/api.md); catalog types are shared with the core. */
+import type { AxisSpec, Curve, Evaluation, MethodInfo, MetricSpec, MetricValue, ModuleKind, ParamSpec } from '@catalog/schema/types'
+
+export type { AxisSpec, Curve, Evaluation, MethodInfo, MetricSpec, MetricValue, ModuleKind, ParamSpec }
+
+export type Role = 'engineer' | 'contributor' | 'librarian' | 'admin'
+export type GrantableRole = Exclude<Role, 'admin'>
+
+export interface User {
+  id: number
+  email: string
+  displayName: string
+  role: Role
+  createdAt: string
+}
+
+export interface Session {
+  token: string
+  user: User
+}
+
+/** A family as the API sends it: the catalog definition without its functions. */
+export interface Family {
+  id: string
+  name: string
+  kind: ModuleKind
+  summary: string
+  params: ParamSpec[]
+  rules: Array<{ fields: string[] }>
+  methods: MethodInfo[]
+  defaultMethod: string
+  metrics: MetricSpec[]
+  axes: { displacement: AxisSpec; force: AxisSpec }
+  cautions: string[]
+}
+
+export interface Material {
+  id: string
+  name: string
+  process: string
+  modulus: number
+  strainLimit: number
+  density: number
+  notes: string
+  source: string
+}
+
+export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired'
+
+export interface PersonRef {
+  id: number
+  displayName: string
+}
+
+export interface EntrySummary {
+  id: number
+  familyId: string
+  familyName: string
+  kind: ModuleKind
+  name: string
+  summary: string
+  tags: string[]
+  status: EntryStatus
+  owner: PersonRef
+  currentRevision: { id: number; number: number; metrics: Record<string, MetricValue> } | null
+  updatedAt: string
+}
+
+export type ParamRanges = Record<string, [number, number]>
+
+export interface Revision {
+  id: number
+  number: number
+  createdAt: string
+  createdBy: PersonRef
+  params: Record<string, number | string>
+  ranges: ParamRanges
+  method: string
+  curve: Curve
+  metrics: Record<string, MetricValue>
+  warnings: string[]
+}
+
+export interface Entry extends EntrySummary {
+  defaultParams: Record<string, number | string>
+  ranges: ParamRanges
+  materials: string[]
+  notes: string
+  revisions: Revision[]
+  reports: unknown[]
+}
+
+export interface EvaluateRequest {
+  params: Record<string, number | string>
+  method?: string
+}

@@ -1,0 +1,24 @@
+/** Flexshelf's words for roles, statuses and kinds, in one place. */
+import type { EntryStatus, ModuleKind, Role } from '@/api/types'
+
+export const roleLabels: Record<Role, string> = {
+  engineer: 'Engineer',
+  contributor: 'Contributor',
+  librarian: 'Librarian',
+  admin: 'Admin',
+}
+
+export const statusLabels: Record<EntryStatus, string> = {
+  draft: 'Draft',
+  in_review: 'In review',
+  released: 'Released',
+  retired: 'Retired',
+}
+
+export const kindLabels: Record<ModuleKind, string> = {
+  bistable: 'Bistable',
+  spring: 'Spring',
+  guide: 'Guide',
+  hinge: 'Hinge',
+  latch: 'Latch',
+}

@@ -1,0 +1,41 @@
+import { createRouter, createWebHistory } from 'vue-router'
+import ShelfView from '@/views/ShelfView.vue'
+import { useSessionStore } from '@/stores/session'
+import { decideAccess, type RouteAccess } from './access'
+
+declare module 'vue-router' {
+  interface RouteMeta extends RouteAccess {
+    title?: string
+  }
+}
+
+const router = createRouter({
+  history: createWebHistory(import.meta.env.BASE_URL),
+  routes: [
+    { path: '/', name: 'shelf', component: ShelfView, meta: { role: 'engineer', title: 'Shelf' } },
+    // route level code-splitting: each view below is loaded when it is first visited
+    { path: '/signin', name: 'signin', component: () => import('@/views/SignInView.vue'), meta: { public: true, guestOnly: true, title: 'Sign in' } },
+    { path: '/entries/:id(\\d+)', name: 'entry', component: () => import('@/views/EntryView.vue'), meta: { role: 'engineer', title: 'Entry' } },
+    { path: '/admin/users', name: 'admin-users', component: () => import('@/views/AdminUsersView.vue'), meta: { role: 'admin', title: 'People and roles' } },
+    { path: '/forbidden', name: 'forbidden', component: () => import('@/views/ForbiddenView.vue'), meta: { public: true, title: 'Not for your role' } },
+    { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true, title: 'Not found' } },
+  ],
+})
+
+router.beforeEach(async (to) => {
+  const session = useSessionStore()
+  await session.restore()
+  const decision = decideAccess(to.meta, session.role, to.fullPath)
+  switch (decision.kind) {
+    case 'allow': return true
+    case 'home': return { name: 'shelf' }
+    case 'sign-in': return { name: 'signin', query: { redirect: decision.redirect } }
+    case 'forbidden': return { name: 'forbidden', query: { from: to.fullPath, needs: decision.required } }
+  }
+})
+
+router.afterEach((to) => {
+  document.title = to.meta.title ? `${to.meta.title} · Flexshelf` : 'Flexshelf'
+})
+
+export default router
