@@ -43,7 +43,11 @@ function assertFinite(family: FamilyDefinition, method: string, values: number[]
 
 /** Validates the parameters, runs the family's model and checks that every number is finite. */
 export function evaluate(familyId: string, rawParams: unknown, options: EvaluateOptions = {}): Evaluation {
-  const family = getFamily(familyId)
+  return evaluateFamily(getFamily(familyId), rawParams, options)
+}
+
+/** The same as evaluate, for a family definition in hand (tolerance bands, tests with a made-up family). */
+export function evaluateFamily(family: FamilyDefinition, rawParams: unknown, options: EvaluateOptions = {}): Evaluation {
   const method = options.method ?? family.defaultMethod
   const methodInfo = family.methods.find((m) => m.id === method)
   if (!methodInfo) {

@@ -1,0 +1,7 @@
+export { toleranceBand, metricBand } from './band'
+export type { ToleranceBand, ToleranceOptions, CornerEvaluation } from './band'
+export { toleranceCorners, wallKeys, MODULUS_RANGE } from './corners'
+export type { ToleranceCorner } from './corners'
+export { curveBand, valuesAt } from './curve-band'
+export type { CurveBand } from './curve-band'
+export { DEFAULT_TOLERANCE, DEFAULT_TOLERANCE_NOTE, resolveTolerance } from './defaults'
