@@ -1,0 +1,91 @@
+/**
+ * Printable solid of the cantilever snap hook: a base block with a mounting hole, the arm
+ * tapering linearly from rootThickness to tipThickness, and the hook head at the tip with its
+ * entry (lead-in) and retaining faces. The bending plane (length × thickness) is the build
+ * plane (xy) and `width` is the print height along z, so the arm bends within its layers
+ * (common practice; a hook bent across its layers splits at the root).
+ *
+ * Layout: arm back face on y = 0, root at x = 0, tip at x = length; the front face runs from
+ * (0, rootThickness) to (length, tipThickness). The head rises `undercut` above the tip's front
+ * face: the entry face climbs from the tip at `entryAngle` to the arm axis, a flat land
+ * HEAD_LAND = 0.5 long follows, and the retaining face falls at `retainAngle` back to the
+ * front face. Both angles are measured from the arm axis (the insertion direction), as in the
+ * snap-fit design equations. `friction` does not change the shape.
+ * Derived dimensions (mm), fixed: base BASE_LENGTH = 8 along x, reaching BASE_MARGIN = 3 beyond
+ * both arm faces in y; one hole of the M3 clearance 3.2 in the middle of the base.
+ */
+import type { Geom3 } from '@jscad/modeling/src/geometries/types'
+import { ValidationError } from '../../errors'
+import { box, extrudeOutline, hole, polygon, type Point } from '../../geometry/outline'
+
+export const BASE_LENGTH = 8
+export const BASE_MARGIN = 3
+export const HEAD_LAND = 0.5
+export const HOLE_DIAMETER = 3.2
+/** The head may take at most this share of the arm, so the arm still bends as a cantilever. */
+export const MAX_HEAD_SHARE = 0.5
+const ARM_ANCHOR = 1
+const deg = Math.PI / 180
+
+export interface SnapHookLayout {
+  /** Arm front face height at x. */
+  front: (x: number) => number
+  /** Head outline, counter-clockwise, including its foot down to the back face (it overlaps the arm). */
+  head: Point[]
+  /** x where the retaining face meets the arm's front face. */
+  retainFoot: number
+  hole: { x: number; y: number; diameter: number }
+}
+
+export function layout(params: Record<string, number>): SnapHookLayout {
+  const { length: l, rootThickness: h0, tipThickness: h1, undercut: u, entryAngle, retainAngle } = params
+  const taper = (h0 - h1) / l
+  const front = (x: number) => h1 + taper * (l - x)
+  const top = h1 + u
+  const entryTop = l - u / Math.tan(entryAngle * deg)
+  const landEnd = entryTop - HEAD_LAND
+  // the retaining face leaves the land at retainAngle and meets the tapered front face:
+  // x·tanβ = landEnd·tanβ − (top − front(x)), solved for x (linear in x)
+  const tanRetain = Math.tan(retainAngle * deg)
+  const retainFoot = retainAngle >= 90 ? landEnd : (landEnd * tanRetain - u + taper * l) / (tanRetain + taper)
+  const head: Point[] = [
+    [retainFoot, 0],
+    [l, 0],
+    [l, h1],
+    [entryTop, top],
+    [landEnd, top],
+    [retainFoot, front(retainFoot)],
+  ]
+  return { front, head, retainFoot, hole: { x: -BASE_LENGTH / 2, y: h0 / 2, diameter: HOLE_DIAMETER } }
+}
+
+/** Message when the head would take more than MAX_HEAD_SHARE of the arm (for a cross-field rule), else null. */
+export function headFitProblem(params: Record<string, number>): string | null {
+  const { retainFoot } = layout(params)
+  const headLength = params.length - retainFoot
+  if (headLength <= MAX_HEAD_SHARE * params.length) return null
+  return `the hook head (${headLength.toPrecision(3)} mm from undercut, entryAngle and retainAngle) must take at most half the arm length (${(MAX_HEAD_SHARE * params.length).toPrecision(3)} mm): use a steeper entryAngle or retainAngle, a smaller undercut or a longer arm`
+}
+
+/** Outer size: x = BASE_LENGTH + length; y from −BASE_MARGIN to the higher of base top and head top; z = width. */
+export function envelope(params: Record<string, number>): { x: number; y: number; z: number } {
+  const { length, rootThickness, tipThickness, undercut, width } = params
+  return {
+    x: BASE_LENGTH + length,
+    y: Math.max(rootThickness + BASE_MARGIN, tipThickness + undercut) + BASE_MARGIN,
+    z: width,
+  }
+}
+
+export function build(params: Record<string, number>): Geom3 {
+  const problem = headFitProblem(params)
+  if (problem) throw new ValidationError([{ field: 'undercut', message: problem }])
+  const { length: l, rootThickness: h0, tipThickness: h1, width } = params
+  const L = layout(params)
+  const solids = [
+    box(-BASE_LENGTH, -BASE_MARGIN, 0, h0 + BASE_MARGIN),
+    polygon([[-ARM_ANCHOR, 0], [l, 0], [l, h1], [0, h0], [-ARM_ANCHOR, h0]]),
+    polygon(L.head),
+  ]
+  return extrudeOutline(solids, [hole(L.hole.x, L.hole.y, L.hole.diameter)], width)
+}
