@@ -1,5 +1,10 @@
 import type { FamilyDefinition } from '../schema/types'
+import { leafHinge } from './leaf-hinge'
+import { notchHinge } from './notch-hinge'
+import { parallelGuide } from './parallel-guide'
+import { serpentineSpring } from './serpentine-spring'
+import { snapHook } from './snap-hook'
 
 // Each family lives in its own folder with params.ts, model.ts, geometry.ts and index.ts;
 // this list is the shelf's order.
-export const families: readonly FamilyDefinition[] = Object.freeze([])
+export const families: readonly FamilyDefinition[] = Object.freeze([leafHinge, notchHinge, parallelGuide, serpentineSpring, snapHook])

@@ -11,7 +11,7 @@ export const leafHinge: FamilyDefinition = {
   params,
   rules,
   methods,
-  defaultMethod: 'prbm',
+  defaultMethod: 'nonlinear-fe',
   metrics,
   axes,
   evaluate,

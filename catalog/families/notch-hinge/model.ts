@@ -3,7 +3,9 @@
  * hinges", Machine Design 37:151–156, 1965 (the same integral in Lobontiu, Compliant
  * Mechanisms: Design of Flexure Hinges, CRC 2003), full and thin-neck forms.
  */
+import { SolverError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { followPath, type Frame, type FrameElement } from '../../solvers'
 
 const DEG = 180 / Math.PI
 /** Points along the curve. */
@@ -16,6 +18,9 @@ export const ROTATION_CAP_DEG = 30
 const SIMPLIFIED_TOLERANCE = 0.05
 /** Above this t/R the neck is short and the beam strain misses the notch's stress concentration (common practice). */
 const THICK_NECK_RATIO = 0.5
+/** Stepped elements across the notch; the compliance is within 0.1 % of a 160-element mesh (tests). */
+export const NOTCH_ELEMENTS = 40
+const FE_POINTS = 25
 
 export const methods: MethodInfo[] = [
   {
@@ -27,6 +32,11 @@ export const methods: MethodInfo[] = [
     id: 'paros-weisbord-simplified',
     label: 'Paros–Weisbord (thin neck)',
     source: 'Paros & Weisbord, Machine Design 37:151–156, 1965, simplified form for a neck much thinner than the notch radius',
+  },
+  {
+    id: 'nonlinear-fe',
+    label: 'Nonlinear beam finite elements',
+    source: 'Geometrically exact planar beam elements (corotational formulation) on a stepped, variable-section beam following the notch profile, loaded by a pure moment under rotation control',
   },
 ]
 
@@ -137,7 +147,106 @@ function closedForm(params: Record<string, number>, modulus: number, strainLimit
   }
 }
 
+/** Thickness of the notch profile at x (mm from the neck): two circular cuts, clipped at the block. */
+export function notchProfile(params: Record<string, number>, x: number): number {
+  const { radius, neckThickness, blockThickness } = params
+  const ax = Math.abs(x)
+  if (ax >= radius) return blockThickness
+  return Math.min(blockThickness, neckThickness + 2 * (radius - Math.sqrt(radius * radius - x * x)))
+}
+
+/** Half-length of the notch along the block: where the cuts leave the block surface (R for full half circles). */
+export function notchHalfLength(params: Record<string, number>): number {
+  const { radius, neckThickness, blockThickness } = params
+  if (!isShallowNotch(params)) return radius
+  const depthOfCut = (blockThickness - neckThickness) / 2
+  return Math.sqrt(radius * radius - (radius - depthOfCut) ** 2)
+}
+
+/**
+ * The notch as a frame of stepped beam elements along x ∈ [−X, X], clamped at −X and driven in
+ * rotation at +X. Stations are spaced as √(tR)·sinh(u) for even u, fine at the neck where the
+ * compliance concentrates. Each element takes the profile thickness at its mid-point; its strain
+ * fibre is scaled so that curvature × fibre is the bending strain at the element's thinnest point.
+ */
+export function notchFrame(params: Record<string, number>, modulus: number, elements = NOTCH_ELEMENTS): { frame: Frame; tip: number } {
+  const half = notchHalfLength(params)
+  const scale = Math.sqrt(params.neckThickness * params.radius)
+  const umax = Math.asinh(half / scale)
+  const count = 2 * Math.ceil(elements / 2)
+  const xs = Array.from({ length: count + 1 }, (_, i) => scale * Math.sinh(umax * ((2 * i) / count - 1)))
+  xs[0] = -half
+  xs[count] = half
+  const nodes = xs.map((x) => ({ x, y: 0 }))
+  const frameElements: FrameElement[] = []
+  for (let i = 0; i < count; i++) {
+    const mid = notchProfile(params, (xs[i] + xs[i + 1]) / 2)
+    const thinnest = notchProfile(params, Math.abs(xs[i]) < Math.abs(xs[i + 1]) ? xs[i] : xs[i + 1])
+    const inertia = (params.depth * mid ** 3) / 12
+    frameElements.push({
+      nodes: [i, i + 1],
+      section: { modulus, area: params.depth * mid, inertia, fibre: (thinnest / 2) * (mid / thinnest) ** 3 },
+    })
+  }
+  return { frame: { nodes, elements: frameElements, supports: [{ node: 0, dofs: [0, 1, 2] }] }, tip: count }
+}
+
+/** Moment–rotation path of the notch from the solver, to `rotation` (rad). */
+export function solveNotch(params: Record<string, number>, modulus: number, rotation: number, elements = NOTCH_ELEMENTS) {
+  const { frame, tip } = notchFrame(params, modulus, elements)
+  return followPath(frame, { control: { node: tip, dof: 2 }, target: rotation, points: FE_POINTS, extrema: false })
+}
+
+function nonlinearFe(params: Record<string, number>, modulus: number, strainLimit: number): ModelOutput {
+  const { depth, neckThickness } = params
+  const estimate = rotationRange(parosWeisbordCompliance(modulus, depth, params.radius, neckThickness), modulus, depth, neckThickness, strainLimit)
+  const cap = ROTATION_CAP_DEG / DEG
+  const path = solveNotch(params, modulus, Math.min(estimate.maxRotation * CURVE_EXTENT * 1.25, cap))
+  const rotations = path.control
+  const strains = path.maxStrain
+  let governing: number | null = null
+  let strainGoverned = false
+  for (let i = 1; i < strains.length && governing === null; i++) {
+    if (strains[i] >= strainLimit) {
+      governing = i - 1 + (strainLimit - strains[i - 1]) / (strains[i] - strains[i - 1])
+      strainGoverned = true
+    }
+  }
+  if (governing === null) {
+    if (rotations[rotations.length - 1] < cap * (1 - 1e-9)) {
+      throw new SolverError('notch-hinge: the path ended before the strain limit or the end of the working range', { rotation: rotations[rotations.length - 1] })
+    }
+    governing = rotations.length - 1
+  }
+  const at = (values: number[]) => {
+    const i = Math.min(Math.floor(governing as number), values.length - 2)
+    return values[i] + (values[i + 1] - values[i]) * ((governing as number) - i)
+  }
+  const maxRotation = at(rotations)
+  const range: RangeResult = { maxRotation, strainGoverned }
+  const warnings = commonWarnings(params, range)
+  const end = maxRotation * (strainGoverned ? CURVE_EXTENT : 1)
+  const keep = rotations.map((r, i) => (r <= end * (1 + 1e-9) ? i : -1)).filter((i) => i >= 0)
+  const peakStrain = at(strains)
+  return {
+    curve: {
+      displacement: keep.map((i) => rotations[i] * DEG),
+      force: keep.map((i) => path.reaction[i]),
+      strain: keep.map((i) => strains[i]),
+      axes,
+    },
+    metrics: {
+      rotationalStiffness: path.reaction[1] / rotations[1],
+      maxRotation: maxRotation * DEG,
+      maxStrain: peakStrain,
+      safetyFactor: strainLimit / peakStrain,
+    },
+    warnings,
+  }
+}
+
 export function evaluate({ params, material, method }: ModelInput): ModelOutput {
+  if (method === 'nonlinear-fe') return nonlinearFe(params, material.modulus, material.strainLimit)
   if (method === 'paros-weisbord-simplified') return closedForm(params, material.modulus, material.strainLimit, true)
   return closedForm(params, material.modulus, material.strainLimit, false)
 }

@@ -11,7 +11,7 @@ export const parallelGuide: FamilyDefinition = {
   params,
   rules,
   methods,
-  defaultMethod: 'linear',
+  defaultMethod: 'nonlinear-fe',
   metrics,
   axes,
   evaluate,

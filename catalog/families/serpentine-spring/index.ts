@@ -11,7 +11,7 @@ export const serpentineSpring: FamilyDefinition = {
   params,
   rules,
   methods,
-  defaultMethod: 'castigliano',
+  defaultMethod: 'nonlinear-fe',
   metrics,
   axes,
   evaluate,

@@ -4,7 +4,9 @@
  * end moment makes ∫M ds = 0, so M = F(y − ȳ) and k = EI/∫(y − ȳ)² ds (REFERENCES §6; for N odd
  * k = 1/[N b³/(12EI) + (N−1) a b²/(4EI)]; published forms: Fedder, PhD thesis, UC Berkeley, 1994).
  */
+import { SolverError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { followPath, meshPolyline, rectangleSection, type Frame, type PathResult } from '../../solvers'
 
 export const CURVE_POINTS = 41
 /** The curve runs this far past the strain-limit travel, so the limit sits inside the plot. */
@@ -13,12 +15,21 @@ export const CURVE_EXTENT = 1.2
 export const TRAVEL_CAP_RATIO = 0.5
 /** Elongation over total span length above which the spans turn enough to stiffen the spring noticeably. */
 const LINEAR_RANGE_RATIO = 0.15
+/** Beam elements per span and per connector; the force is within 0.2 % of a mesh twice as fine (tests). */
+export const SPAN_ELEMENTS = 8
+export const CONNECTOR_ELEMENTS = 2
+const FE_POINTS = 41
 
 export const methods: MethodInfo[] = [
   {
     id: 'castigliano',
     label: 'Castigliano meander formula',
     source: 'Castigliano\u2019s theorem on the meander, bending only (k = EI/∫(y − ȳ)² ds; for an odd number of spans k = 1/[N b³/(12EI) + (N−1) a b²/(4EI)]; cf. Fedder, PhD thesis, UC Berkeley, 1994)',
+  },
+  {
+    id: 'nonlinear-fe',
+    label: 'Nonlinear beam finite elements',
+    source: 'Geometrically exact planar beam elements (corotational formulation) on the meander as a frame of spans and connectors, followed along the equilibrium path under displacement control',
   },
 ]
 
@@ -119,6 +130,85 @@ function castigliano(params: Record<string, number>, modulus: number, strainLimi
   }
 }
 
-export function evaluate({ params, material }: ModelInput): ModelOutput {
+/**
+ * The meander centreline as one polyline of beam elements: span j at x = j·pitch from y = 0 to b
+ * (odd j going up, even going down), connectors along x at alternate ends. Node 0 is clamped to the
+ * fixed pad; the last node is the moving pad: rotation held, free across the axis, driven along it.
+ */
+export function meanderFrame(params: Record<string, number>, modulus: number, spanElements = SPAN_ELEMENTS, connectorElements = CONNECTOR_ELEMENTS): { frame: Frame; pad: number } {
+  const { spans, spanLength: b, pitch: a } = params
+  const points: Array<{ x: number; y: number }> = [{ x: 0, y: 0 }]
+  for (let j = 0; j < spans; j++) {
+    const x = j * a
+    const up = j % 2 === 0
+    for (let i = 1; i <= spanElements; i++) points.push({ x, y: up ? (b * i) / spanElements : b - (b * i) / spanElements })
+    if (j + 1 < spans) {
+      const y = up ? b : 0
+      for (let i = 1; i <= connectorElements; i++) points.push({ x: x + (a * i) / connectorElements, y })
+    }
+  }
+  const part = meshPolyline(points, rectangleSection(modulus, params.thickness, params.depth))
+  return {
+    frame: { nodes: part.nodes, elements: part.elements, supports: [{ node: part.first, dofs: [0, 1, 2] }, { node: part.last, dofs: [2] }] },
+    pad: part.last,
+  }
+}
+
+export function solveMeander(params: Record<string, number>, modulus: number, travel: number, spanElements = SPAN_ELEMENTS, connectorElements = CONNECTOR_ELEMENTS): PathResult {
+  const { frame, pad } = meanderFrame(params, modulus, spanElements, connectorElements)
+  return followPath(frame, { control: { node: pad, dof: 0 }, target: travel, points: FE_POINTS, extrema: false })
+}
+
+function nonlinearFe(params: Record<string, number>, modulus: number, strainLimit: number): ModelOutput {
+  const { EI } = sectionOf(params, modulus)
+  const k = castiglianoStiffness(params.spans, params.spanLength, params.pitch, EI)
+  const cap = travelCap(params)
+  const estimate = strainLimit / linearStrainAtForce(params, modulus, k)
+  const path = solveMeander(params, modulus, Math.min(estimate * CURVE_EXTENT * 1.25, cap))
+  const travel = path.control
+  const strains = path.maxStrain
+  let governing: number | null = null
+  for (let i = 1; i < strains.length && governing === null; i++) {
+    if (strains[i] >= strainLimit) governing = i - 1 + (strainLimit - strains[i - 1]) / (strains[i] - strains[i - 1])
+  }
+  const strainGoverned = governing !== null
+  const warnings: string[] = []
+  if (governing === null) {
+    if (travel[travel.length - 1] < cap * (1 - 1e-9)) {
+      throw new SolverError('serpentine-spring: the path ended before the strain limit or the end of the working range', { travel: travel[travel.length - 1] })
+    }
+    governing = travel.length - 1
+    warnings.push(capWarning(params))
+  }
+  const g = governing
+  const at = (values: number[]) => {
+    const i = Math.min(Math.floor(g), values.length - 2)
+    return values[i] + (values[i + 1] - values[i]) * (g - i)
+  }
+  const maxTravel = at(travel)
+  const end = maxTravel * (strainGoverned ? CURVE_EXTENT : 1)
+  const keep = travel.map((d, i) => (d <= end * (1 + 1e-9) ? i : -1)).filter((i) => i >= 0)
+  const slope = (i: number) => path.reaction[i] / travel[i]
+  const peakStrain = at(strains)
+  return {
+    curve: {
+      displacement: keep.map((i) => travel[i]),
+      force: keep.map((i) => path.reaction[i]),
+      strain: keep.map((i) => strains[i]),
+      axes,
+    },
+    metrics: {
+      // Richardson on the first two points (F/δ = k0 + c₁δ + …) removes the first-order term of the small-travel slope.
+      stiffness: 2 * slope(1) - slope(2),
+      maxTravel,
+      maxStrain: peakStrain,
+      safetyFactor: strainLimit / peakStrain,
+    },
+    warnings,
+  }
+}
+
+export function evaluate({ params, material, method }: ModelInput): ModelOutput {
+  if (method === 'nonlinear-fe') return nonlinearFe(params, material.modulus, material.strainLimit)
   return castigliano(params, material.modulus, material.strainLimit)
 }

@@ -1,4 +1,5 @@
 import type { CrossRule, ParamSpec } from '../../schema/types'
+import { headFitProblem } from './geometry'
 
 /** Parameters of the cantilever snap-fit hook; lengths mm, angles degrees. */
 export const params: ParamSpec[] = [
@@ -70,5 +71,10 @@ export const rules: CrossRule[] = [
     check: (p) => (p.friction * Math.tan(p.entryAngle * deg) >= 0.95
       ? `entryAngle (${p.entryAngle}°) is too steep for friction ${p.friction}: friction × tan(entryAngle) must stay below 0.95 or the hook jams on entry`
       : null),
+  },
+  {
+    // the printed head (entry face, land, retaining face) must leave most of the arm free to bend
+    fields: ['undercut', 'entryAngle', 'retainAngle', 'length'],
+    check: (p) => headFitProblem(p),
   },
 ]
