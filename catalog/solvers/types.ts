@@ -47,6 +47,21 @@ export interface PathRequest {
   /** Newton tolerance on the residual, relative to the reaction scale. */
   tolerance?: number
   maxIterations?: number
+  /**
+   * Locate each local maximum and minimum of the reaction between steps (regula falsi on the
+   * path slope) and insert it as an extra point; default true under displacement control.
+   */
+  extrema?: boolean
+}
+
+/** A local extremum of the reaction along the path, located to the solver's tolerance. */
+export interface PathExtremum {
+  kind: 'max' | 'min'
+  control: number
+  reaction: number
+  maxStrain: number
+  /** Index of this point in the PathResult arrays. */
+  index: number
 }
 
 export interface PathResult {
@@ -60,4 +75,10 @@ export interface PathResult {
   tracked: number[][]
   /** Total Newton iterations, for benchmarks. */
   iterations: number
+  /** Whether the equilibrium is stable under the chosen control (no negative pivot in the tangent). */
+  stable: boolean[]
+  /** Local extrema of the reaction (also present as points in the arrays above). */
+  extrema: PathExtremum[]
+  /** Accepted path steps, for benchmarks. */
+  steps: number
 }

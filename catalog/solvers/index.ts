@@ -1,0 +1,6 @@
+export * from './types'
+export { followPath } from './follow-path'
+export { rectangleSection } from './section'
+export { meshCurve, meshPolyline, meshStraight, type MeshPart } from './mesh'
+export { createBandMatrix, bandAdd, bandFactor, bandSolve, type BandMatrix } from './band'
+export { reverseCuthillMcKee } from './ordering'
