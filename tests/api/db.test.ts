@@ -120,7 +120,7 @@ describe('the write queue', () => {
       await Promise.all(Array.from({ length: 12 }, (_, i) => db.write(async (transaction) => {
         running++
         most = Math.max(most, running)
-        expect(transaction.options.type).toBe(Transaction.TYPES.IMMEDIATE)
+        expect((transaction as unknown as { options: { type: string } }).options.type).toBe(Transaction.TYPES.IMMEDIATE)
         const count = await Material.count({ transaction })
         await Material.create({ id: `queued-${i}`, name: `queued ${count}`, process: 'FDM', modulus: 1, strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
         running--

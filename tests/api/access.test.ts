@@ -1,0 +1,173 @@
+/**
+ * Who may call what: for every API route, the status each role must get. A route added
+ * to the app without a row here fails the walk at the bottom.
+ */
+import type { Express } from 'express'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { families } from '../../catalog'
+import { ROLES, type Role } from '../../api/roles'
+import { bearer, demoEmail, signIn, signInAs, startTestApp, type TestApp } from './helpers'
+
+type Caller = 'anonymous' | Role
+const CALLERS: Caller[] = ['anonymous', ...ROLES]
+
+interface Row {
+  /** METHOD and the route's path as registered (parameters as :name). */
+  route: string
+  /** What this row checks, when a route has more than one. */
+  case?: string
+  path: () => string
+  body?: () => unknown
+  /** A token used only for this request (sign-out revokes it). */
+  freshToken?: boolean
+  expected: Record<Caller, number>
+}
+
+const statuses = (anonymous: number, engineer: number, contributor: number, librarian: number, admin: number) =>
+  ({ anonymous, engineer, contributor, librarian, admin })
+
+let t: TestApp
+const tokens = {} as Record<Role, string>
+const fixture = { targetUserId: 0, draftEntryId: 0, releasedEntryId: 0 }
+let accounts = 0
+
+const SIGNIN_ACCOUNT = { email: 'table.signin@example.test', password: 'table password 1', displayName: 'Sela Marr' }
+
+const ROWS: Row[] = [
+  { route: 'GET /api/health', path: () => '/api/health', expected: statuses(200, 200, 200, 200, 200) },
+  {
+    route: 'POST /api/auth/signup', path: () => '/api/auth/signup',
+    body: () => ({ email: `table.account.${++accounts}@example.test`, password: 'a good long password', displayName: 'Table Account' }),
+    expected: statuses(201, 201, 201, 201, 201),
+  },
+  {
+    route: 'POST /api/auth/signin', path: () => '/api/auth/signin',
+    body: () => ({ email: SIGNIN_ACCOUNT.email, password: SIGNIN_ACCOUNT.password }),
+    expected: statuses(200, 200, 200, 200, 200),
+  },
+  { route: 'POST /api/auth/signout', path: () => '/api/auth/signout', freshToken: true, expected: statuses(401, 204, 204, 204, 204) },
+  { route: 'GET /api/auth/me', path: () => '/api/auth/me', expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/users', path: () => '/api/users', expected: statuses(401, 403, 403, 403, 200) },
+  {
+    route: 'PATCH /api/users/:id/role', path: () => `/api/users/${fixture.targetUserId}/role`, body: () => ({ role: 'contributor' }),
+    expected: statuses(401, 403, 403, 403, 200),
+  },
+  { route: 'GET /api/families', path: () => '/api/families', expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/families/:id', path: () => `/api/families/${families[0].id}`, expected: statuses(401, 200, 200, 200, 200) },
+  {
+    route: 'POST /api/families/:id/evaluate', path: () => `/api/families/${families[0].id}/evaluate`, body: () => ({ params: {} }),
+    expected: statuses(401, 200, 200, 200, 200),
+  },
+  { route: 'GET /api/materials', path: () => '/api/materials', expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/entries', path: () => '/api/entries', expected: statuses(401, 200, 200, 200, 200) },
+  {
+    route: 'GET /api/entries/:id', case: 'a released entry', path: () => `/api/entries/${fixture.releasedEntryId}`,
+    expected: statuses(401, 200, 200, 200, 200),
+  },
+  {
+    route: 'GET /api/entries/:id', case: "the contributor's draft", path: () => `/api/entries/${fixture.draftEntryId}`,
+    expected: statuses(401, 404, 200, 200, 200),
+  },
+  { route: 'GET /api/audit', path: () => '/api/audit', expected: statuses(401, 403, 403, 403, 200) },
+]
+
+beforeAll(async () => {
+  t = await startTestApp()
+  const { Entry, User } = t.context.db.models
+  await request(t.app).post('/api/auth/signup').send(SIGNIN_ACCOUNT).expect(201)
+  const target = await request(t.app).post('/api/auth/signup').send({ email: 'table.target@example.test', password: 'target password 1', displayName: 'Tor Vale' }).expect(201)
+  fixture.targetUserId = target.body.user.id
+  const contributor = (await User.findOne({ where: { email: demoEmail('contributor') } }))!
+  const librarian = (await User.findOne({ where: { email: demoEmail('librarian') } }))!
+  const entry = (name: string, status: 'draft' | 'released', ownerId: number) =>
+    Entry.create({ familyId: 'bistable-beam', name, summary: '', tags: [], status, defaultParams: {}, ranges: {}, materials: [], ownerId, currentRevisionId: null })
+  fixture.draftEntryId = (await entry('Access table draft', 'draft', contributor.id)).id
+  fixture.releasedEntryId = (await entry('Access table release', 'released', librarian.id)).id
+  for (const role of ROLES) tokens[role] = await signInAs(t.app, role)
+})
+afterAll(() => t.close())
+
+async function call(row: Row, caller: Caller) {
+  const [method] = row.route.split(' ')
+  let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'patch'](row.path())
+  if (caller !== 'anonymous') {
+    const token = row.freshToken ? await signIn(t.app, demoEmail(caller)) : tokens[caller]
+    req = req.set(bearer(token))
+  }
+  return row.body ? req.send(row.body() as object) : req
+}
+
+for (const row of ROWS) {
+  describe(row.case ? `${row.route} (${row.case})` : row.route, () => {
+    for (const caller of CALLERS) {
+      const expected = row.expected[caller]
+      describe(caller === 'anonymous' ? 'anonymously' : `as ${caller === 'admin' || caller === 'engineer' ? 'an' : 'a'} ${caller}`, () => {
+        it(`answers ${expected}`, async () => {
+          const res = await call(row, caller)
+          expect(res.status, JSON.stringify(res.body)).toBe(expected)
+          if (expected >= 400) expect(Object.keys(res.body.error).sort()).toEqual(['code', 'details', 'message'])
+        })
+      })
+    }
+  })
+}
+
+interface RegisteredRoute {
+  route: string
+  minimumRoles: Array<Role | 'public'>
+}
+
+interface StackLayer {
+  rawPath?: unknown
+  route?: { path: string; methods: Record<string, boolean>; stack: Array<{ handle: { minimumRole?: Role | 'public' } }> }
+  handle?: { stack?: StackLayer[] }
+}
+
+/** Every route of the app under /api, read from Express 5's router stack. */
+function registeredApiRoutes(app: Express): RegisteredRoute[] {
+  const found: RegisteredRoute[] = []
+  const join = (...parts: string[]) => parts.join('').replace(/\/{2,}/g, '/').replace(/(.)\/$/, '$1')
+  const walk = (stack: StackLayer[], prefix: string) => {
+    for (const layer of stack) {
+      if (layer.route) {
+        for (const method of Object.keys(layer.route.methods)) {
+          if (method === '_all') continue
+          const minimumRoles = layer.route.stack.map((l) => l.handle.minimumRole).filter((r): r is Role | 'public' => r !== undefined)
+          found.push({ route: `${method.toUpperCase()} ${join(prefix, layer.route.path)}`, minimumRoles })
+        }
+      } else if (layer.handle?.stack) {
+        walk(layer.handle.stack, join(prefix, typeof layer.rawPath === 'string' ? layer.rawPath : ''))
+      }
+    }
+  }
+  walk((app as unknown as { router: { stack: StackLayer[] } }).router.stack, '')
+  return found.filter((r) => r.route.split(' ')[1].startsWith('/api'))
+}
+
+/** The lowest caller a row lets through (not 401 or 403). */
+function lowestAllowed(row: Row): Role | 'public' {
+  const caller = CALLERS.find((c) => ![401, 403].includes(row.expected[c]))!
+  return caller === 'anonymous' ? 'public' : caller
+}
+
+describe('the registered API routes', () => {
+  it('each have a row in the access table', () => {
+    const registered = registeredApiRoutes(t.app).map((r) => r.route)
+    expect(registered.length).toBeGreaterThanOrEqual(14)
+    const inTable = new Set(ROWS.map((r) => r.route))
+    expect(registered.filter((r) => !inTable.has(r)), 'routes without a row').toEqual([])
+  })
+
+  it('are all in the app (no row for a route that does not exist)', () => {
+    const registered = new Set(registeredApiRoutes(t.app).map((r) => r.route))
+    expect(ROWS.map((r) => r.route).filter((r) => !registered.has(r))).toEqual([])
+  })
+
+  it('each declare exactly one minimum role, the one the table expects', () => {
+    for (const route of registeredApiRoutes(t.app)) {
+      expect(route.minimumRoles, route.route).toHaveLength(1)
+      for (const row of ROWS.filter((r) => r.route === route.route)) expect(route.minimumRoles[0], route.route).toBe(lowestAllowed(row))
+    }
+  })
+})
