@@ -107,6 +107,17 @@ export function signedVolume(triangles: readonly StlTriangle[]): number {
   return sum / 6
 }
 
+/** Total triangle area (mm²). */
+export function surfaceArea(triangles: readonly StlTriangle[]): number {
+  let sum = 0
+  for (const { vertices: [a, b, c] } of triangles) {
+    const u = [b[0] - a[0], b[1] - a[1], b[2] - a[2]]
+    const v = [c[0] - a[0], c[1] - a[1], c[2] - a[2]]
+    sum += Math.hypot(u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]) / 2
+  }
+  return sum
+}
+
 export interface BoundingBox {
   min: [number, number, number]
   max: [number, number, number]
@@ -131,6 +142,7 @@ export interface MeshReport extends EdgeReport {
   headerCount: number
   triangleCount: number
   volume: number
+  surfaceArea: number
   box: BoundingBox
 }
 
@@ -142,6 +154,7 @@ export function checkStl(bytes: Uint8Array): MeshReport {
     triangleCount: triangles.length,
     ...checkEdges(triangles),
     volume: signedVolume(triangles),
+    surfaceArea: surfaceArea(triangles),
     box: boundingBox(triangles),
   }
 }

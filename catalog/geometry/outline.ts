@@ -13,7 +13,10 @@ export type Point = [number, number]
 /** Segments per full circle of a mounting hole: polygon area is (n/2)·sin(2π/n) r², 0.16 % short of πr² at 64. */
 export const HOLE_SEGMENTS = 64
 
-/** Points per cosine beam (segments along the span); chord error below 1e-4 of the thickness at the defaults. */
+/**
+ * Segments per cosine beam along the span. A chord of length s on a curve of curvature κ sags
+ * κ s²/8 from it: 1.3e-4 mm at span 40, apex height 3 (s = 0.17 mm), a few 1e-4 of the area.
+ */
 export const BEAM_SEGMENTS = 240
 
 /** Axis-aligned rectangle from its corners (x0 < x1, y0 < y1). */
