@@ -82,13 +82,14 @@ export async function seedDemoData(context: AppContext, options: SeedOptions = {
   // hash outside the write transaction: bcrypt is slow on purpose, writers should not wait
   const existing = new Set((await User.findAll({ attributes: ['email'] })).map((u) => u.email))
   const missing = DEMO_USERS.filter((u) => !existing.has(u.email))
-  const passwordHash = missing.length ? await hashPassword(context, DEMO_PASSWORD) : ''
+  const hashes = new Map<string, string>()
+  for (const demo of missing) hashes.set(demo.email, await hashPassword(context, DEMO_PASSWORD))
 
   await context.db.write(async (transaction) => {
     for (const demo of missing) {
       const [, created] = await User.findOrCreate({
         where: { email: demo.email },
-        defaults: { email: demo.email, displayName: demo.displayName, role: demo.role, passwordHash },
+        defaults: { email: demo.email, displayName: demo.displayName, role: demo.role, passwordHash: hashes.get(demo.email)! },
         transaction,
       })
       if (created) report.usersCreated++

@@ -1,4 +1,4 @@
-import { Router, type NextFunction, type Request, type Response } from 'express'
+import { Router, type Request, type Response } from 'express'
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit'
 import type { AppContext } from '../context'
 import { HttpError } from '../errors'
@@ -42,7 +42,7 @@ export function authRouter(context: AppContext): Router {
     res.status(204).end()
   }
 
-  function me(req: Request, res: Response, _next: NextFunction) {
+  function me(req: Request, res: Response) {
     res.json({ user: toUserView(currentAuth(req).user) })
   }
 
