@@ -17,7 +17,7 @@ export const TRAVEL_CAP_RATIO = 0.4
 const LINEAR_RANGE_RATIO = 0.1
 /** Beam elements per blade; force and shortening are within 0.1 % of a 48-element mesh (tests). */
 export const BLADE_ELEMENTS = 12
-const FE_POINTS = 41
+const FE_POINTS = 61
 
 export const methods: MethodInfo[] = [
   {

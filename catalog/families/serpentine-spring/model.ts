@@ -18,7 +18,7 @@ const LINEAR_RANGE_RATIO = 0.15
 /** Beam elements per span and per connector; the force is within 0.2 % of a mesh twice as fine (tests). */
 export const SPAN_ELEMENTS = 8
 export const CONNECTOR_ELEMENTS = 2
-const FE_POINTS = 41
+const FE_POINTS = 61
 
 export const methods: MethodInfo[] = [
   {

@@ -92,14 +92,14 @@ describe('notch-hinge: solver on the stepped notch against Paros–Weisbord', ()
 })
 
 describe('notch-hinge through the command line', () => {
-  function capture() {
+  function capture<T>() {
     let text = ''
-    return { stream: { write: (s: string) => { text += s; return true } } as unknown as NodeJS.WriteStream, text: () => text }
+    return { stream: { write: (s: string) => { text += s; return true } } as unknown as T, text: () => text }
   }
 
   it('evaluate prints the JSON result with the chosen method', async () => {
-    const out = capture()
-    const err = capture()
+    const out = capture<typeof process.stdout>()
+    const err = capture<typeof process.stderr>()
     const code = await main(['evaluate', 'notch-hinge', '{"radius":3,"neckThickness":0.6}', '--method', 'paros-weisbord-simplified'], out.stream, err.stream)
     expect(code).toBe(0)
     const observed = JSON.parse(out.text())
@@ -109,8 +109,8 @@ describe('notch-hinge through the command line', () => {
   })
 
   it('bad input prints one line per field on stderr and exits 1', async () => {
-    const out = capture()
-    const err = capture()
+    const out = capture<typeof process.stdout>()
+    const err = capture<typeof process.stderr>()
     const code = await main(['evaluate', 'notch-hinge', '{"radius":-1,"depth":"wide"}'], out.stream, err.stream)
     expect(code).toBe(1)
     expect(err.text()).toMatch(/^radius: /m)
