@@ -3,15 +3,18 @@
  *   flexshelf evaluate <familyId> '<params JSON>' [--method <id>]
  *   flexshelf stl <familyId> '<params JSON>' -o part.stl
  *   flexshelf families
+ *   flexshelf search '<force window JSON>' [--shelf shelf.json]
  * JSON goes to stdout; bad input prints one line per problem on stderr and exits 1.
  */
-import { writeFileSync } from 'node:fs'
+import { readFileSync, writeFileSync } from 'node:fs'
 import { buildGeometry, evaluate, families, serializeStl, SolverError, UnknownFamilyError, ValidationError } from './index'
+import { DEMO_SHELF, searchShelfSync, type Shelf } from './search'
 
 const USAGE = `usage:
   flexshelf evaluate <familyId> '<params as JSON>' [--method <method>]
   flexshelf stl <familyId> '<params as JSON>' -o <file.stl>
   flexshelf families
+  flexshelf search '<force window as JSON>' [--shelf <shelf.json>]
 families: ${families.map((f) => f.id).join(', ')}`
 
 class UsageError extends Error {}
@@ -34,6 +37,24 @@ function takeOption(args: string[], names: string[]): string | undefined {
   return value
 }
 
+/** A shelf file: a JSON list of entries, or { "entries": [...] } as the server exports it. */
+function readShelf(file: string): Shelf {
+  let text: string
+  try {
+    text = readFileSync(file, 'utf8')
+  } catch (e) {
+    throw new UsageError(`cannot read the shelf file ${file}: ${(e as Error).message}`)
+  }
+  const data = parseJson(text, `shelf file ${file}`) as { entries?: unknown } | unknown[]
+  const entries = Array.isArray(data) ? data : (data as { entries?: unknown }).entries
+  if (!Array.isArray(entries)) throw new UsageError(`shelf file ${file} must hold a list of entries or { "entries": [...] }`)
+  entries.forEach((e, i) => {
+    const ok = e && typeof e === 'object' && typeof e.familyId === 'string' && typeof e.name === 'string' && e.ranges && typeof e.ranges === 'object' && Array.isArray(e.materials)
+    if (!ok) throw new UsageError(`shelf file ${file}: entry ${i} needs familyId, name, ranges and materials`)
+  })
+  return entries.map((e, i) => ({ id: i + 1, summary: '', tags: [], defaultParams: {}, status: 'released', ...e })) as Shelf
+}
+
 export async function main(argv: string[], out = process.stdout, err = process.stderr): Promise<number> {
   const args = [...argv]
   try {
@@ -54,6 +75,15 @@ export async function main(argv: string[], out = process.stdout, err = process.s
       const bytes = serializeStl(buildGeometry(familyId, parseJson(json, 'params')))
       writeFileSync(file, bytes)
       err.write(`wrote ${file} (${bytes.byteLength} bytes, ${(bytes.byteLength - 84) / 50} triangles)\n`)
+      return 0
+    }
+    if (command === 'search') {
+      const shelfFile = takeOption(args, ['--shelf', '-s'])
+      const [json] = args
+      if (!json) throw new UsageError('search needs a force window as JSON')
+      const window = parseJson(json, 'force window')
+      const shelf = shelfFile ? readShelf(shelfFile) : DEMO_SHELF
+      out.write(JSON.stringify(searchShelfSync(window, shelf), null, 2) + '\n')
       return 0
     }
     if (command === 'families') {

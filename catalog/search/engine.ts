@@ -1,0 +1,281 @@
+/**
+ * The shelf search (issue 6): for every released entry of the window's kind, in every
+ * allowed material, sample the allowed ranges on printable increments, judge each candidate
+ * with the fast estimator over the tolerance band, refine around the best with a local
+ * coordinate search on the continuous parameters, rank, and confirm the top results with the
+ * exact method. Written as a generator so one body serves a synchronous run (CLI, bench,
+ * tests) and a cancellable, time-sliced asynchronous one (API, web worker).
+ */
+import { evaluateFamily, families as registry } from '../index'
+import { builtinMaterials } from '../materials'
+import { printerRules, type PrinterRules } from '../printability'
+import type { FamilyDefinition } from '../schema/types'
+import { resolveTolerance } from '../tolerance'
+import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, judge, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
+import { scoreCandidate, type CandidateContext, type CandidateScore } from './candidate'
+import { estimatorFor, exactMethodOf } from './estimators'
+import { explainEmpty, type Tally } from './explain'
+import { rankKey } from './rank'
+import { refine } from './refine'
+import { entryGrid, gridPoints, type Axis } from './sampling'
+import { createShelfIndex, type ShelfTextIndex } from './text-index'
+import type { Confirmation, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
+import { describeResult } from './why'
+
+/** Candidates sampled per entry and material when the options give no budget. */
+export const DEFAULT_BUDGET = 6000
+/** Results confirmed with the exact method when the options do not say. */
+export const DEFAULT_CONFIRM = 5
+/** Seeds per entry and material that the local search refines. */
+export const REFINE_SEEDS = 3
+/** Candidates between two checkpoints (progress, cancellation). */
+const YIELD_EVERY = 1024
+
+export class SearchCancelledError extends Error {
+  constructor() {
+    super('search cancelled')
+    this.name = 'AbortError'
+  }
+}
+
+export interface Unit {
+  entry: ShelfEntry
+  family: FamilyDefinition
+  material: SearchMaterial
+}
+
+export interface Scored {
+  unit: Unit
+  params: Record<string, number>
+  score: CandidateScore
+  area: number
+  volume: number
+}
+
+const now = () => (globalThis.performance?.now ? globalThis.performance.now() : Date.now())
+
+function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): CandidateContext {
+  const { family, material } = unit
+  return {
+    family,
+    estimator: estimatorFor(family),
+    modulus: material.modulus,
+    strainLimit: material.strainLimit,
+    tolerance: resolveTolerance(window.tolerance),
+    compiled,
+    footprint: window.footprint,
+    walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
+  }
+}
+
+function scored(unit: Unit, params: Record<string, number>, score: CandidateScore): Scored {
+  const env = unit.family.envelope(params)
+  return { unit, params: { ...params }, score, area: env.x * env.y, volume: env.x * env.y * env.z }
+}
+
+const rankOf = (s: Scored) => ({ windowMargin: s.score.windowMargin, safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1, area: s.area, volume: s.volume })
+
+/** Units to search and why the others were left out. */
+function unitsOf(window: ForceWindow, shelf: Shelf, families: readonly FamilyDefinition[], materials: readonly SearchMaterial[], index: ShelfTextIndex | undefined, tally: Tally): Unit[] {
+  const kinds = familyKindsForWindow[window.kind]
+  let entries = shelf.filter((e) => e.status === 'released')
+  tally.entries.released = entries.length
+  entries = entries.filter((e) => {
+    const family = families.find((f) => f.id === e.familyId)
+    if (!family) { tally.notes.push(`entry "${e.name}" names the unknown family ${e.familyId}`); return false }
+    return kinds.includes(family.kind)
+  })
+  tally.entries.ofKind = entries.length
+  if (window.text?.trim()) {
+    const hits = new Set((index ?? createShelfIndex(entries, families)).search(window.text).map((h) => String(h.entryId)))
+    entries = entries.filter((e) => hits.has(String(e.id)))
+    tally.entries.matchingText = entries.length
+  }
+  const units: Unit[] = []
+  for (const entry of entries) {
+    const family = families.find((f) => f.id === entry.familyId)!
+    const own = entry.materials.length ? entry.materials : [typeof entry.defaultParams.material === 'string' ? entry.defaultParams.material : 'petg']
+    const wanted = window.materials ? own.filter((m) => window.materials!.includes(m)) : own
+    for (const id of wanted) {
+      const material = materials.find((m) => m.id === id)
+      if (material) units.push({ entry, family, material })
+      else tally.notes.push(`entry "${entry.name}" lists the unknown material ${id}`)
+    }
+  }
+  tally.entries.withMaterial = new Set(units.map((u) => u.entry.id)).size
+  return units
+}
+
+function bandOf(compiled: CompiledWindow, score: CandidateScore): MetricBand {
+  const band: MetricBand = {}
+  for (const key of compiled.metrics) {
+    const lo = score.low?.[key]
+    const hi = score.high?.[key]
+    band[key] = typeof lo === 'number' && typeof hi === 'number' ? [lo, hi] : null
+  }
+  return band
+}
+
+function confirm(window: ForceWindow, compiled: CompiledWindow, s: Scored, materials: readonly SearchMaterial[]): Confirmation {
+  const method = exactMethodOf(s.unit.family)
+  try {
+    const exact = evaluateFamily(s.unit.family, { ...s.params, material: s.unit.material.id }, { method, materials: [...materials] })
+    const metrics: Record<string, number | boolean | null> = {}
+    const agreement: Record<string, number> = {}
+    for (const key of compiled.metrics) {
+      const value = exact.metrics[key] ?? null
+      metrics[key] = value
+      const fast = s.score.nominal?.[key]
+      if (typeof value === 'number' && typeof fast === 'number') agreement[key] = fast === 0 ? Math.abs(value) : (value - fast) / Math.abs(fast)
+    }
+    if (typeof exact.metrics.bistable === 'boolean') metrics.bistable = exact.metrics.bistable
+    return { method, metrics, agreement, verdict: judge(window, exact.metrics).verdict }
+  } catch (e) {
+    return { method, metrics: null, agreement: {}, error: (e as Error).message }
+  }
+}
+
+function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex }): Generator<void, SearchAnswer> {
+  const started = now()
+  const families = options.families ?? registry
+  const materials = options.materials ?? builtinMaterials
+  const rules: PrinterRules = printerRules(window.printer)
+  const compiled = compileWindow(window)
+  const keys = [...compiled.metrics, 'bistable']
+  const limit = window.limit ?? DEFAULT_LIMIT
+  const budget = options.budget ?? DEFAULT_BUDGET
+  const tally: Tally = { entries: { released: 0, ofKind: 0, matchingText: null, withMaterial: 0 }, reasons: {}, unprintable: [], notes: [], nearest: null, considered: 0 }
+  const units = unitsOf(window, shelf, families, materials, options.index, tally)
+  const progress = (done: number, phase: 'sampling' | 'refining' | 'confirming' | 'done') =>
+    options.onProgress?.({ done, total: units.length, considered: tally.considered, phase })
+
+  const accepted: Scored[] = []
+  for (let u = 0; u < units.length; u++) {
+    const unit = units[u]
+    const grid = entryGrid(unit.family, unit.entry, rules, budget)
+    if (grid.problem) { tally.unprintable.push(`${unit.entry.name}: ${grid.problem}`); continue }
+    const ctx = contextOf(unit, window, compiled)
+    const seeds: Scored[] = []
+    const mine: Scored[] = []
+    const consider = (params: Record<string, number>, score: CandidateScore) => {
+      tally.considered++
+      if (score.ok) mine.push(scored(unit, params, score))
+      else tally.reasons[score.reason!] = (tally.reasons[score.reason!] ?? 0) + 1
+      if (!score.ok && (!tally.nearest || score.objective > tally.nearest.score.objective)) tally.nearest = scored(unit, params, score)
+      if (seeds.length < REFINE_SEEDS || score.objective > seeds[seeds.length - 1].score.objective) {
+        seeds.push(scored(unit, params, score))
+        seeds.sort((a, b) => b.score.objective - a.score.objective)
+        if (seeds.length > REFINE_SEEDS) seeds.pop()
+      }
+    }
+    let sinceYield = 0
+    for (const params of gridPoints(grid.axes)) {
+      consider(params, scoreCandidate(ctx, params, keys))
+      if (++sinceYield % YIELD_EVERY === 0) yield
+    }
+    progress(u + 0.5, 'refining')
+    const continuous: Axis[] = grid.axes.filter((a) => a.kind === 'continuous')
+    for (const seed of seeds) {
+      if (seed.score.objective === -Infinity || !continuous.length) continue
+      const found = refine(ctx, continuous, seed.params, seed.score, keys, consider)
+      if (found.score.ok) mine.push(scored(unit, found.params, found.score))
+    }
+    accepted.push(...bestOf(mine, limit))
+    progress(u + 1, 'sampling')
+    yield
+  }
+
+  const top = bestOf(accepted, limit)
+  const confirmCount = Math.min(top.length, options.confirm ?? DEFAULT_CONFIRM)
+  const results: SearchResult[] = []
+  for (let i = 0; i < top.length; i++) {
+    const s = top[i]
+    let confirmed: Confirmation | null = null
+    if (i < confirmCount) {
+      progress(units.length, 'confirming')
+      confirmed = confirm(window, compiled, s, materials)
+      yield
+    }
+    const band = bandOf(compiled, s.score)
+    const env = s.unit.family.envelope(s.params)
+    results.push({
+      entryId: s.unit.entry.id,
+      entryName: s.unit.entry.name,
+      family: s.unit.family.id,
+      params: { ...s.params, material: s.unit.material.id },
+      metrics: s.score.nominal ?? {},
+      band,
+      margin: s.score.windowMargin,
+      safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1,
+      method: estimatorFor(s.unit.family).method,
+      confirmed,
+      why: describeResult(i + 1, window, band, s.score, env, s.unit.material, confirmed),
+    })
+  }
+  progress(units.length, 'done')
+  const elapsedMs = now() - started
+  const tol = resolveTolerance(window.tolerance)
+  const explanation = results.length
+    ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
+    : explainEmpty(window, compiled, tally, rules)
+  return { results, considered: tally.considered, elapsedMs, explanation }
+}
+
+/** The n best by rank, each parameter set once. */
+function bestOf(list: Scored[], n: number): Scored[] {
+  const keyed = list.map((s) => ({ s, key: rankKey(rankOf(s)) }))
+  keyed.sort((a, b) => {
+    for (let i = 0; i < 4; i++) if (a.key[i] !== b.key[i]) return a.key[i] - b.key[i]
+    return b.s.score.windowMargin - a.s.score.windowMargin
+  })
+  const seen = new Set<string>()
+  const out: Scored[] = []
+  for (const { s } of keyed) {
+    const id = `${s.unit.entry.id}|${s.unit.material.id}|${JSON.stringify(s.params)}`
+    if (seen.has(id)) continue
+    seen.add(id)
+    out.push(s)
+    if (out.length === n) break
+  }
+  return out
+}
+
+function prepare(rawWindow: unknown, options: SearchOptions): ForceWindow {
+  const ids = (options.materials ?? builtinMaterials).map((m) => m.id)
+  return parseWindow(rawWindow, { materialIds: ids })
+}
+
+/** Runs the search to the end on the calling thread (CLI, benchmark, tests). */
+export function searchShelfSync(rawWindow: unknown, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex } = {}): SearchAnswer {
+  const window = prepare(rawWindow, options)
+  const body = searchBody(window, shelf, options)
+  for (;;) {
+    if (options.signal?.aborted) throw new SearchCancelledError()
+    const step = body.next()
+    if (step.done) return step.value
+  }
+}
+
+/** Slice of work between two yields to the event loop in the asynchronous run, ms. */
+export const TIME_SLICE_MS = 15
+
+const macrotask = () => new Promise<void>((resolve) => (typeof setImmediate === 'function' ? setImmediate(resolve) : setTimeout(resolve, 0)))
+
+/**
+ * The same search, yielding to the event loop every TIME_SLICE_MS so that progress can be
+ * reported and `signal` can cancel it (rejects with an AbortError).
+ */
+export async function searchShelf(rawWindow: unknown, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex } = {}): Promise<SearchAnswer> {
+  const window = prepare(rawWindow, options)
+  const body = searchBody(window, shelf, options)
+  let sliceStart = now()
+  for (;;) {
+    if (options.signal?.aborted) throw new SearchCancelledError()
+    const step = body.next()
+    if (step.done) return step.value
+    if (now() - sliceStart > TIME_SLICE_MS) {
+      await macrotask()
+      sliceStart = now()
+    }
+  }
+}

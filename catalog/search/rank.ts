@@ -1,0 +1,33 @@
+/**
+ * Ranking: the margin to the window's edges over the tolerance band first, then strain
+ * safety, then footprint area, then a print-time proxy (the envelope volume). Margins and
+ * safety factors are compared in bands (5 % of the window, 10 % of safety), so that a
+ * hair's difference in margin does not override a clearly safer or smaller part.
+ */
+import { EDGE_FRACTION } from '../window'
+
+export const MARGIN_BUCKET = EDGE_FRACTION
+export const SAFETY_BUCKET = 0.1
+/** Safety factors above this all count as ample. */
+export const SAFETY_CAP = 5
+
+export interface Rankable {
+  windowMargin: number
+  safetyFactor: number | null
+  /** Envelope area in the build plane, mm². */
+  area: number
+  /** Envelope volume, mm³ (print-time proxy). */
+  volume: number
+}
+
+export function rankKey(r: Rankable): [number, number, number, number] {
+  const safety = r.safetyFactor === null ? SAFETY_CAP : Math.min(SAFETY_CAP, r.safetyFactor)
+  return [-Math.floor(r.windowMargin / MARGIN_BUCKET), -Math.floor(safety / SAFETY_BUCKET + 1e-9), r.area, r.volume]
+}
+
+export function compareRank(a: Rankable, b: Rankable): number {
+  const ka = rankKey(a)
+  const kb = rankKey(b)
+  for (let i = 0; i < ka.length; i++) if (ka[i] !== kb[i]) return ka[i] - kb[i]
+  return b.windowMargin - a.windowMargin
+}

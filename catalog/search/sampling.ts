@@ -1,0 +1,113 @@
+/**
+ * The candidate grid of one entry: its allowed ranges sampled on printable increments —
+ * walls in whole perimeters of the printer's line width, print heights in whole layers,
+ * counts in whole numbers, other lengths and angles at evenly spaced levels on the
+ * parameter's step — thinned so the grid stays inside a budget.
+ */
+import { PRINT_HEIGHT_KEYS, printableHeights, printableWalls, type PrinterRules } from '../printability'
+import type { FamilyDefinition, ParamSpec } from '../schema/types'
+import type { ShelfEntry } from './types'
+
+export type AxisKind = 'wall' | 'height' | 'count' | 'continuous' | 'fixed'
+
+export interface Axis {
+  spec: ParamSpec
+  kind: AxisKind
+  lo: number
+  hi: number
+  /** Every value the axis may take before thinning (continuous axes: the levels). */
+  values: number[]
+}
+
+export interface EntryGrid {
+  axes: Axis[]
+  /** Why the entry cannot be sampled at all (no printable wall inside its range), or null. */
+  problem: string | null
+}
+
+const tidy = (v: number) => Number(v.toPrecision(12))
+
+export function snapToStep(spec: ParamSpec, v: number, lo: number, hi: number): number {
+  const snapped = tidy(Math.round(v / spec.step) * spec.step)
+  return snapped < lo - 1e-12 || snapped > hi + 1e-12 ? v : snapped
+}
+
+function levels(spec: ParamSpec, lo: number, hi: number, n: number): number[] {
+  if (hi <= lo || n <= 1) return [lo]
+  const out = new Set<number>()
+  for (let i = 0; i < n; i++) out.add(snapToStep(spec, lo + ((hi - lo) * i) / (n - 1), lo, hi))
+  return [...out].sort((a, b) => a - b)
+}
+
+/** n values of a sorted list, evenly picked, ends kept. */
+export function thin(values: number[], n: number): number[] {
+  if (values.length <= n) return values
+  if (n <= 1) return [values[Math.floor(values.length / 2)]]
+  const out = new Set<number>()
+  for (let i = 0; i < n; i++) out.add(values[Math.round((i * (values.length - 1)) / (n - 1))])
+  return [...out]
+}
+
+function axisOf(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules, maxLevels: number): Axis | string {
+  const given = entry.defaultParams[spec.key]
+  const fallback = typeof given === 'number' ? given : spec.default
+  const range = entry.ranges[spec.key]
+  if (!range) return { spec, kind: 'fixed', lo: fallback, hi: fallback, values: [fallback] }
+  const lo = Math.max(spec.min, range[0])
+  const hi = Math.min(spec.max, range[1])
+  if (hi <= lo) return { spec, kind: 'fixed', lo, hi: lo, values: [lo] }
+  if (spec.role === 'wall') {
+    const walls = printableWalls(rules, lo, hi)
+    if (!walls.length) return `${spec.label} ${lo}–${hi} ${spec.unit} holds no printable wall on a ${rules.nozzle} mm nozzle (at least ${rules.minimumWall} mm, in ${rules.lineWidth} mm perimeters)`
+    return { spec, kind: 'wall', lo, hi, values: thin(walls, maxLevels) }
+  }
+  if ((PRINT_HEIGHT_KEYS as readonly string[]).includes(spec.key)) {
+    const heights = printableHeights(rules, lo, hi)
+    if (heights.length) return { spec, kind: 'height', lo, hi, values: thin(heights, maxLevels) }
+  }
+  if (spec.integer) {
+    const counts: number[] = []
+    for (let n = Math.ceil(lo); n <= hi; n++) counts.push(n)
+    return { spec, kind: 'count', lo, hi, values: thin(counts, maxLevels) }
+  }
+  return { spec, kind: 'continuous', lo, hi, values: levels(spec, lo, hi, maxLevels) }
+}
+
+/** Largest levels per axis (at most 9) whose full grid fits the budget. */
+export function entryGrid(family: FamilyDefinition, entry: ShelfEntry, rules: PrinterRules, budget: number): EntryGrid {
+  let best: Axis[] | null = null
+  for (let n = 9; n >= 2; n--) {
+    const axes: Axis[] = []
+    for (const spec of family.params) {
+      const axis = axisOf(spec, entry, rules, n)
+      if (typeof axis === 'string') return { axes: [], problem: axis }
+      axes.push(axis)
+    }
+    best = axes
+    if (gridSize(axes) <= budget) break
+  }
+  return { axes: best ?? [], problem: null }
+}
+
+export function gridSize(axes: Axis[]): number {
+  return axes.reduce((n, a) => n * a.values.length, 1)
+}
+
+/** Each grid point in turn (the same object, refilled: copy it to keep it). */
+export function* gridPoints(axes: Axis[]): Generator<Record<string, number>> {
+  const params: Record<string, number> = {}
+  const index = new Array(axes.length).fill(0)
+  for (let i = 0; i < axes.length; i++) params[axes[i].spec.key] = axes[i].values[0]
+  for (;;) {
+    yield params
+    let k = axes.length - 1
+    while (k >= 0) {
+      index[k]++
+      if (index[k] < axes[k].values.length) { params[axes[k].spec.key] = axes[k].values[index[k]]; break }
+      index[k] = 0
+      params[axes[k].spec.key] = axes[k].values[0]
+      k--
+    }
+    if (k < 0) return
+  }
+}

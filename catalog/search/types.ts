@@ -1,0 +1,92 @@
+/**
+ * The shelf search's inputs and outputs. A shelf is the list of entries the librarians curate
+ * (the API reads it from the database; the CLI from a JSON file or the built-in demo shelf).
+ */
+import type { ParamRanges } from '../schema/validate'
+import type { FamilyDefinition, MetricValue } from '../schema/types'
+
+export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired'
+
+export interface ShelfEntry {
+  id: string | number
+  familyId: string
+  name: string
+  summary: string
+  tags: string[]
+  /** Material ids the entry may be printed in. */
+  materials: string[]
+  /** The entry's default configuration (numbers, plus an optional `material`). */
+  defaultParams: Record<string, number | string>
+  /** Allowed ranges; a parameter without one stays at its default. */
+  ranges: ParamRanges
+  /** Only released entries are searched. */
+  status: EntryStatus
+}
+
+export type Shelf = readonly ShelfEntry[]
+
+/** A material as search needs it (the API resolves its curated list to these numbers). */
+export interface SearchMaterial {
+  id: string
+  name: string
+  modulus: number
+  strainLimit: number
+}
+
+export interface SearchProgress {
+  /** Entry–material pairs searched so far, and in all. */
+  done: number
+  total: number
+  /** Candidate parameter sets estimated so far. */
+  considered: number
+  phase: 'sampling' | 'refining' | 'confirming' | 'done'
+}
+
+export interface SearchOptions {
+  /** Families to search (defaults to the catalog's registry). */
+  families?: readonly FamilyDefinition[]
+  /** Materials the shelf may name (defaults to the built-in ones). */
+  materials?: readonly SearchMaterial[]
+  /** Results confirmed with the exact method (the rest carry `confirmed: null`). */
+  confirm?: number
+  /** Candidate parameter sets sampled per entry and material before refinement. */
+  budget?: number
+  onProgress?: (progress: SearchProgress) => void
+  signal?: AbortSignal
+}
+
+export interface Confirmation {
+  method: string
+  /** Window metrics from the exact method at the result's parameters; null when it failed. */
+  metrics: Record<string, MetricValue> | null
+  /** Relative difference, exact against fast estimate, per window metric. */
+  agreement: Record<string, number>
+  /** The exact method's nominal verdict against the window (absent when it failed). */
+  verdict?: 'inside' | 'edge' | 'outside'
+  error?: string
+}
+
+export interface SearchResult {
+  entryId: string | number
+  entryName: string
+  family: string
+  params: Record<string, number | string>
+  metrics: Record<string, MetricValue>
+  band: Record<string, [number, number] | null>
+  /** Smallest margin over the tolerance band to the window's edges (fractions of the window). */
+  margin: number
+  /** Strain safety factor at the band's worst corner. */
+  safetyFactor: number | null
+  /** Method of the fast estimate. */
+  method: string
+  confirmed: Confirmation | null
+  why: string
+}
+
+export interface SearchAnswer {
+  results: SearchResult[]
+  /** Candidate parameter sets estimated (sampling and refinement). */
+  considered: number
+  elapsedMs: number
+  explanation: string
+}
