@@ -9,7 +9,7 @@ export interface FieldIssue {
 
 export type ApiErrorCode =
   | 'malformed_json' | 'validation_failed' | 'unauthenticated' | 'forbidden' | 'not_found'
-  | 'conflict' | 'payload_too_large' | 'solver_failed' | 'rate_limited' | 'internal'
+  | 'conflict' | 'payload_too_large' | 'unsupported_media_type' | 'solver_failed' | 'rate_limited' | 'internal'
   | 'network' | 'bad_response'
 
 export class ApiError extends Error {

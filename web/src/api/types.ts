@@ -55,8 +55,10 @@ export interface PersonRef {
 export interface EntrySummary {
   id: number
   familyId: string
+  /** The family's name, or its id when the family is no longer registered. */
   familyName: string
-  kind: ModuleKind
+  /** null when the family is no longer registered. */
+  kind: ModuleKind | null
   name: string
   summary: string
   tags: string[]

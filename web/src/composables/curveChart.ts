@@ -101,7 +101,7 @@ export function curveChartOption(input: CurveChartInput): Record<string, unknown
       host.markArea = {
         silent: true,
         itemStyle: { color: p.windowBand },
-        label: { show: true, position: 'insideTopRight', formatter: 'force window', color: p.window, fontFamily, fontSize: 11 },
+        label: { show: true, position: 'insideTopRight', formatter: `${axes.force.label.toLowerCase()} window`, color: p.window, fontFamily, fontSize: 11 },
         data: [[{ yAxis: window!.min ?? 'min' }, { yAxis: window!.max ?? 'max' }]],
       }
     }
@@ -120,7 +120,7 @@ export function curveChartOption(input: CurveChartInput): Record<string, unknown
     backgroundColor: 'transparent',
     animation: false,
     textStyle: { fontFamily, color: p.ink },
-    grid: { left: 64, right: 24, top: 28, bottom: 52 },
+    grid: { left: 64, right: 64, top: 36, bottom: 52 },
     legend: {
       show: series.length > 1,
       top: 0,
