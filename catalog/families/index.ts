@@ -1,4 +1,5 @@
 import type { FamilyDefinition } from '../schema/types'
+import { bistableBeam } from './bistable-beam'
 import { leafHinge } from './leaf-hinge'
 import { notchHinge } from './notch-hinge'
 import { parallelGuide } from './parallel-guide'
@@ -7,4 +8,4 @@ import { snapHook } from './snap-hook'
 
 // Each family lives in its own folder with params.ts, model.ts, geometry.ts and index.ts;
 // this list is the shelf's order.
-export const families: readonly FamilyDefinition[] = Object.freeze([leafHinge, notchHinge, parallelGuide, serpentineSpring, snapHook])
+export const families: readonly FamilyDefinition[] = Object.freeze([bistableBeam, leafHinge, notchHinge, parallelGuide, serpentineSpring, snapHook])

@@ -161,6 +161,15 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
     const outcome = solveAt(ws, lambda, trial)
     if (!outcome.converged) {
       step /= 4
+      if (Math.abs(step) < MIN_STEP_FRACTION * Math.abs(spacing) && jumpPastFold(ws, done, trial, spacing, result)) {
+        // the path folded back (a snap under displacement control): continue on the branch it jumps to
+        step = spacing / 4
+        copyInto(before, done)
+        haveBefore = false
+        copyInto(done, trial)
+        result.steps++
+        continue
+      }
       if (Math.abs(step) < MIN_STEP_FRACTION * Math.abs(spacing)) {
         throw new SolverError(
           `path: Newton did not converge at control ${lambda.toPrecision(6)} (step ${result.steps + 1}, from ${done.lambda.toPrecision(6)}), residual ${outcome.residual.toExponential(3)} N after ${outcome.iterations} iterations`,
@@ -249,4 +258,21 @@ function locateExtremum(ws: Workspace, lo: Snapshot, hi: Snapshot, mid: Snapshot
     }
   }
   return found
+}
+
+/**
+ * At a fold of the path under displacement control no equilibrium lies just ahead: the part
+ * snaps. Looks for a stable equilibrium a little further on (a quarter station, then half, one),
+ * starting from the last state, and records the jump. Returns false when none is found.
+ */
+function jumpPastFold(ws: Workspace, done: Snapshot, into: Snapshot, spacing: number, result: PathResult): boolean {
+  for (const ahead of [0.25, 0.5, 1]) {
+    const lambda = done.lambda + ahead * spacing
+    ws.u.set(done.u)
+    if (solveAt(ws, lambda, into).converged && into.stable) {
+      result.jumps.push(done.lambda)
+      return true
+    }
+  }
+  return false
 }

@@ -81,4 +81,9 @@ export interface PathResult {
   extrema: PathExtremum[]
   /** Accepted path steps, for benchmarks. */
   steps: number
+  /**
+   * Control values where the path folded back under displacement control and the solver
+   * continued on the stable branch the part snaps to (a jump in the curve, as on a test stand).
+   */
+  jumps: number[]
 }

@@ -1,0 +1,152 @@
+import { ValidationError } from '../../errors'
+import type { AxisSpec, MethodInfo, MetricSpec, MetricValue, ModelInput, ModelOutput } from '../../schema/types'
+import { closedFormForce, closedFormMetrics, closedFormStrain, CRITICAL_Q } from './closed-form'
+import { snapMetrics, type SnapMetrics } from './curve-metrics'
+import { estimateRigidPeak } from './estimate'
+import { FE_POINTS, solveBistableFe } from './fe-model'
+import { MIN_SLENDERNESS } from './params'
+
+export const methods: MethodInfo[] = [
+  {
+    id: 'nonlinear-fe', label: 'Nonlinear beam finite elements',
+    source: 'Corotational Euler–Bernoulli beam elements (Crisfield 1991; shallow-arch local strain, Battini & Pacoste 2002), displacement-controlled Newton–Raphson path following with the second symmetric shape seeded at the bifurcation (Qiu, Lang & Slocum 2004).',
+  },
+  {
+    id: 'closed-form', label: 'Two-mode closed form',
+    source: 'Qiu, Lang & Slocum, "A curved-beam bistable mechanism", J. Microelectromechanical Systems 13(2):137–146, 2004 (rigidly clamped ends only).',
+  },
+]
+
+export const axes: { displacement: AxisSpec; force: AxisSpec } = {
+  displacement: { label: 'Shuttle displacement', unit: 'mm' },
+  force: { label: 'Force', unit: 'N' },
+}
+
+export const metrics: MetricSpec[] = [
+  { key: 'peakForce', label: 'Peak force', unit: 'N', help: 'Largest force on the way in: what it takes to snap the switch over.' },
+  { key: 'valleyForce', label: 'Valley force', unit: 'N', help: 'Smallest force after the peak; negative means the shuttle pulls itself into the second position.' },
+  { key: 'unstablePosition', label: 'Unstable position', unit: 'mm', help: 'Where the force falls through zero between peak and valley (empty when the part springs back).' },
+  { key: 'secondStablePosition', label: 'Second stable position', unit: 'mm', help: 'Where the force rises back through zero: the shuttle rests here (empty when it springs back).' },
+  { key: 'energyIn', label: 'Work to snap', unit: 'mJ', help: 'Work done pushing the shuttle to the unstable position.' },
+  { key: 'energyBarrier', label: 'Energy barrier', unit: 'mJ', help: 'Work to push the shuttle back from the second position over the unstable one.' },
+  { key: 'bistable', label: 'Bistable', unit: 'boolean', help: 'True when the shuttle stays in a second position by itself.' },
+  { key: 'maxStrain', label: 'Largest strain', unit: '', help: 'Largest bending-plus-axial strain along the travel (0.02 = 2 %).' },
+  { key: 'strainLimit', label: 'Strain limit', unit: '', help: 'Permissible strain of the material.' },
+  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit divided by the largest strain.' },
+]
+
+/** Module force scale 2·E·I·h/l³ (two beams), N: the closed form's f is per beam. */
+export function forceScale(p: Record<string, number>, modulus: number): number {
+  const inertia = (p.depth * p.thickness ** 3) / 12
+  return (2 * modulus * inertia * p.apexHeight) / p.span ** 3
+}
+
+/** Near the critical ratio a tolerance on the printed thickness can remove bistability (common practice). */
+const NEAR_CRITICAL = 0.15
+/** Slender enough for Euler–Bernoulli beams to within a few percent (common practice). */
+const SLENDER = 40
+
+function closedForm(p: Record<string, number>, modulus: number): { x: number[]; f: number[]; strain: number[]; m: SnapMetrics } {
+  const q = p.apexHeight / p.thickness
+  const scale = forceScale(p, modulus)
+  const x: number[] = [], f: number[] = [], strain: number[] = []
+  const cf = closedFormMetrics(q)
+  const stations = Array.from({ length: FE_POINTS }, (_, i) => (2 * i) / (FE_POINTS - 1))
+  // the kinks of the path (where it meets and leaves the mode-3 line) are points of the curve
+  const all = [...stations, cf.peakAt, cf.valleyAt].filter((d, i, a) => d >= 0 && d <= 2 && a.indexOf(d) === i).sort((a, b) => a - b)
+  for (const d of all) {
+    x.push(d * p.apexHeight)
+    f.push(closedFormForce(q, d) * scale)
+    strain.push(closedFormStrain(q, d, p.apexHeight, p.thickness, p.span))
+  }
+  const bistable = cf.secondAt !== null
+  const m: SnapMetrics = {
+    peakForce: cf.peak * scale, peakAt: cf.peakAt * p.apexHeight,
+    valleyForce: cf.valley * scale, valleyAt: cf.valleyAt * p.apexHeight,
+    unstableAt: (cf.unstableAt ?? cf.valleyAt) * p.apexHeight,
+    secondAt: (cf.secondAt ?? cf.valleyAt) * p.apexHeight,
+    energyIn: (cf.workIn ?? closedFormWorkToValley(q, cf.valleyAt)) * scale * p.apexHeight,
+    energyBarrier: (cf.barrier ?? 0) * scale * p.apexHeight,
+    bistable,
+  }
+  return { x, f, strain, m }
+}
+
+function closedFormWorkToValley(q: number, valleyAt: number): number {
+  // trapezoid on a fine grid: only used for monostable curves, where energyIn is not reported
+  let w = 0
+  const n = 200
+  for (let i = 1; i <= n; i++) w += 0.5 * (closedFormForce(q, ((i - 1) * valleyAt) / n) + closedFormForce(q, (i * valleyAt) / n)) * (valleyAt / n)
+  return w
+}
+
+export function evaluate(input: ModelInput): ModelOutput {
+  const { params: p, material, method } = input
+  if (method === 'closed-form' && p.postLength > 0) {
+    // compliant posts let the beam ends move and can remove bistability altogether; a rigid-end
+    // estimate would be quietly wrong, so it is refused rather than returned with a warning
+    throw new ValidationError([{ field: 'method', message: 'closed-form assumes rigidly clamped beam ends (postLength 0); use nonlinear-fe for side posts' }])
+  }
+  let x: number[], f: number[], strain: number[], m: SnapMetrics
+  if (method === 'closed-form') {
+    ({ x, f, strain, m } = closedForm(p, material.modulus))
+  } else {
+    const fe = solveBistableFe({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength, modulus: material.modulus })
+    x = fe.displacement
+    f = fe.force
+    strain = fe.strain
+    m = snapMetrics(x, f)
+  }
+  const maxStrain = Math.max(...strain)
+  const out: Record<string, MetricValue> = {
+    peakForce: m.peakForce,
+    valleyForce: m.valleyForce,
+    unstablePosition: m.valleyForce < 0 ? m.unstableAt : null,
+    secondStablePosition: m.bistable ? m.secondAt : null,
+    energyIn: m.valleyForce < 0 ? m.energyIn : null,
+    energyBarrier: m.bistable ? m.energyBarrier : null,
+    bistable: m.valleyForce < 0,
+    maxStrain,
+    strainLimit: material.strainLimit,
+    safetyFactor: material.strainLimit / maxStrain,
+  }
+  return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings: warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method) }
+}
+
+function pct(v: number): string {
+  return `${Number((v * 100).toPrecision(3))} %`
+}
+
+function warningsFor(p: Record<string, number>, m: SnapMetrics, maxStrain: number, strainLimit: number, modulus: number, method: string): string[] {
+  const w: string[] = []
+  const q = p.apexHeight / p.thickness
+  if (maxStrain > strainLimit) {
+    w.push(`Largest strain ${pct(maxStrain)} exceeds the material's limit ${pct(strainLimit)}: the beams may crack or take a set; lower the apex height or the thickness, or lengthen the span.`)
+  }
+  if (m.valleyForce >= 0) {
+    w.push(p.postLength > 0
+      ? 'Not bistable: the shuttle springs back when released. The side posts give way under the beams\u2019 end thrust; shorten them or raise the apex height.'
+      : `Not bistable: the shuttle springs back when released (apexHeight/thickness = ${q.toFixed(2)}; the pair needs more than ${CRITICAL_Q.toFixed(2)}, Qiu et al. 2004).`)
+  } else {
+    if (-m.valleyForce < NEAR_CRITICAL * m.peakForce) {
+      w.push(`Barely bistable: the valley force is only ${pct(-m.valleyForce / m.peakForce)} of the peak; a slightly thinner print or a softer material can make it spring back.`)
+    }
+    if (!m.bistable) {
+      w.push('The second stable position lies beyond twice the apex height (the posts let the beams travel further); a stop in the frame will set where the shuttle rests, and the energy barrier is not reported.')
+    }
+  }
+  if (p.span / p.thickness < SLENDER) {
+    w.push(`Thick beams (span/thickness = ${(p.span / p.thickness).toFixed(0)}, below ${SLENDER}): slender-beam theory neglects shear and may misjudge the force by a few percent${p.span / p.thickness < MIN_SLENDERNESS * 1.25 ? ' or more' : ''}.`)
+  }
+  if (method === 'closed-form') {
+    if (p.apexHeight / p.span > 0.1) w.push('Deep arch (apex height above 10 % of the span): the shallow-arch closed form loses accuracy; check with nonlinear-fe.')
+    w.push('The two-mode closed form places the peak early and overstates it by several percent against the nonlinear solution.')
+  }
+  if (p.postLength > 0 && method !== 'closed-form') {
+    const rigid = estimateRigidPeak(p, modulus)
+    if (rigid !== null && rigid > 0) {
+      w.push(`Compliant side posts: the peak force is ${pct(m.peakForce / rigid)} of what rigidly clamped ends would give; post stiffness varies strongly with printed thickness.`)
+    }
+  }
+  return w
+}
