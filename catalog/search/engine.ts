@@ -174,9 +174,9 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       if (++sinceYield % YIELD_EVERY === 0) yield
     }
     progress(u + 0.5, 'refining')
-    const continuous: Axis[] = grid.axes.filter((a) => a.kind === 'continuous')
+    const continuous: Axis[] = grid.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
     for (const seed of seeds) {
-      if (seed.score.objective === -Infinity || !continuous.length) continue
+      if (options.refine === false || seed.score.objective === -Infinity || !continuous.length) continue
       const found = refine(ctx, continuous, seed.params, seed.score, keys, consider)
       if (found.score.ok) mine.push(scored(unit, found.params, found.score))
     }

@@ -10,7 +10,7 @@ import { linearStiffness, linearStrain, linearTravelRange, parasiticShortening }
 import { castiglianoStiffness, linearStrainAtForce, travelCap } from '../families/serpentine-spring/model'
 import { neckStrain, parosWeisbordCompliance, rotationRange } from '../families/notch-hinge/model'
 import { deflectionForce, rootStrainAt, wedgeForce } from '../families/snap-hook/model'
-import { evaluate as leafHingeModel, geometryOf, prbmRotationalStiffness } from '../families/leaf-hinge/model'
+import { evaluate as leafHingeModel } from '../families/leaf-hinge/model'
 
 export type Estimate = Record<string, MetricValue>
 export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
@@ -24,23 +24,24 @@ export interface FastEstimator {
 const DEG = 180 / Math.PI
 
 /**
- * The leaf hinge's range metrics (largest rotation, drift, strain) come from a root search in
- * its model and do not depend on the modulus or the depth (strain and drift are geometric), so
- * they are memoised by (length, thickness, linkLength, strain limit) and taken from the
- * family's own model; the stiffness is its closed form. A test holds this to the model.
+ * The leaf hinge's metrics come from a root search in its model. Moment scales with E·b and
+ * every other metric (rotation, drift, strain) is geometric, independent of the modulus and the
+ * depth; so the family's own model is run once per (length, thickness, linkLength, strain
+ * limit) at a reference modulus and unit depth, memoised, and the stiffness scaled by E·b.
+ * A test holds this to the model.
  */
 const LEAF_MEMO_LIMIT = 50000
-const leafRangeMemo = new Map<string, Estimate>()
-function leafRange(p: Record<string, number>, limit: number): Estimate {
+const LEAF_REFERENCE_MODULUS = 1000
+const leafMemo = new Map<string, Estimate>()
+function leafHingeEstimate(p: Record<string, number>, E: number, limit: number): Estimate {
   const key = `${p.length}|${p.thickness}|${p.linkLength}|${limit}`
-  let hit = leafRangeMemo.get(key)
-  if (!hit) {
-    const m = leafHingeModel({ params: p, material: { id: null, name: '', modulus: 1000, strainLimit: limit }, method: 'prbm' }).metrics
-    hit = { maxRotation: m.maxRotation, pivotDrift: m.pivotDrift, maxStrain: m.maxStrain, safetyFactor: m.safetyFactor }
-    if (leafRangeMemo.size >= LEAF_MEMO_LIMIT) leafRangeMemo.clear()
-    leafRangeMemo.set(key, hit)
+  let unit = leafMemo.get(key)
+  if (!unit) {
+    unit = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit }, method: 'prbm' }).metrics
+    if (leafMemo.size >= LEAF_MEMO_LIMIT) leafMemo.clear()
+    leafMemo.set(key, unit)
   }
-  return hit
+  return { ...unit, rotationalStiffness: ((unit.rotationalStiffness as number) * E * p.depth) / LEAF_REFERENCE_MODULUS }
 }
 
 /** Family id → dedicated estimator. Each reproduces the named method's metrics. */
@@ -85,7 +86,7 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
   },
   'leaf-hinge': {
     method: 'prbm',
-    estimate: (p, E, limit) => ({ rotationalStiffness: prbmRotationalStiffness(geometryOf(p), E), ...leafRange(p, limit) }),
+    estimate: leafHingeEstimate,
   },
 })
 

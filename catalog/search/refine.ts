@@ -1,6 +1,6 @@
 /**
  * Local refinement around a good candidate: a coordinate (compass) search on the continuous
- * parameters — try one step up and down each parameter, move on the first improvement, halve
+ * parameters and the print height (in whole layers) — try one step up and down each parameter, move on the first improvement, halve
  * the steps when none improves, stop below the parameter's own step. It climbs the candidate's
  * objective (the smallest margin over the band), so it both widens the margin of a feasible
  * candidate and can walk a near miss into a narrow window the grid stepped over.
@@ -32,9 +32,10 @@ export function refine(
     let improved = false
     for (let i = 0; i < axes.length && !improved; i++) {
       const { spec, lo, hi } = axes[i]
-      if (steps[i] < spec.step / 2) continue
+      const unit = axes[i].step ?? spec.step
+      if (steps[i] < unit / 2) continue
       for (const dir of [1, -1]) {
-        const v = snapToStep(spec, Math.min(hi, Math.max(lo, best[spec.key] + dir * steps[i])), lo, hi)
+        const v = snapToStep(spec, Math.min(hi, Math.max(lo, best[spec.key] + dir * Math.max(steps[i], unit))), lo, hi, unit)
         if (Math.abs(v - best[spec.key]) < 1e-12) continue
         const trial = { ...best, [spec.key]: v }
         const score = scoreCandidate(ctx, trial, keys)
@@ -52,7 +53,7 @@ export function refine(
       let any = false
       for (let i = 0; i < steps.length; i++) {
         steps[i] /= 2
-        if (steps[i] >= axes[i].spec.step / 2) any = true
+        if (steps[i] >= (axes[i].step ?? axes[i].spec.step) / 2) any = true
       }
       if (!any) break
     }

@@ -15,8 +15,10 @@ export interface Axis {
   kind: AxisKind
   lo: number
   hi: number
-  /** Every value the axis may take before thinning (continuous axes: the levels). */
+  /** The grid values of the axis (thinned to the budget). */
   values: number[]
+  /** Smallest move that stays printable: a line width, a layer, 1, or the parameter's step. */
+  step?: number
 }
 
 export interface EntryGrid {
@@ -27,8 +29,8 @@ export interface EntryGrid {
 
 const tidy = (v: number) => Number(v.toPrecision(12))
 
-export function snapToStep(spec: ParamSpec, v: number, lo: number, hi: number): number {
-  const snapped = tidy(Math.round(v / spec.step) * spec.step)
+export function snapToStep(spec: ParamSpec, v: number, lo: number, hi: number, step = spec.step): number {
+  const snapped = tidy(Math.round(v / step) * step)
   return snapped < lo - 1e-12 || snapped > hi + 1e-12 ? v : snapped
 }
 
@@ -56,21 +58,26 @@ function axisOf(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules, maxLeve
   const lo = Math.max(spec.min, range[0])
   const hi = Math.min(spec.max, range[1])
   if (hi <= lo) return { spec, kind: 'fixed', lo, hi: lo, values: [lo] }
+  // The librarian's default is a proven configuration: keep it on the grid when it is printable.
+  const withDefault = (values: number[], allowed: number[] | null) =>
+    fallback >= lo && fallback <= hi && (!allowed || allowed.some((v) => Math.abs(v - fallback) < 1e-9)) && !values.includes(fallback)
+      ? [...values, fallback].sort((a, b) => a - b)
+      : values
   if (spec.role === 'wall') {
     const walls = printableWalls(rules, lo, hi)
     if (!walls.length) return `${spec.label} ${lo}–${hi} ${spec.unit} holds no printable wall on a ${rules.nozzle} mm nozzle (at least ${rules.minimumWall} mm, in ${rules.lineWidth} mm perimeters)`
-    return { spec, kind: 'wall', lo, hi, values: thin(walls, maxLevels) }
+    return { spec, kind: 'wall', lo, hi, values: withDefault(thin(walls, maxLevels), walls), step: rules.lineWidth }
   }
   if ((PRINT_HEIGHT_KEYS as readonly string[]).includes(spec.key)) {
     const heights = printableHeights(rules, lo, hi)
-    if (heights.length) return { spec, kind: 'height', lo, hi, values: thin(heights, maxLevels) }
+    if (heights.length) return { spec, kind: 'height', lo, hi, values: withDefault(thin(heights, maxLevels), heights), step: rules.layer }
   }
   if (spec.integer) {
     const counts: number[] = []
     for (let n = Math.ceil(lo); n <= hi; n++) counts.push(n)
-    return { spec, kind: 'count', lo, hi, values: thin(counts, maxLevels) }
+    return { spec, kind: 'count', lo, hi, values: withDefault(thin(counts, maxLevels), counts), step: 1 }
   }
-  return { spec, kind: 'continuous', lo, hi, values: levels(spec, lo, hi, maxLevels) }
+  return { spec, kind: 'continuous', lo, hi, values: withDefault(levels(spec, lo, hi, maxLevels), null), step: spec.step }
 }
 
 /** Largest levels per axis (at most 9) whose full grid fits the budget. */

@@ -51,6 +51,8 @@ export interface SearchOptions {
   confirm?: number
   /** Candidate parameter sets sampled per entry and material before refinement. */
   budget?: number
+  /** Refine around the best candidates with a local search (default true). */
+  refine?: boolean
   onProgress?: (progress: SearchProgress) => void
   signal?: AbortSignal
 }

@@ -1,0 +1,43 @@
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import { evaluate, families } from '../../../catalog'
+import { dedicatedEstimators, estimatorFor } from '../../../catalog/search'
+import type { FamilyDefinition } from '../../../catalog/schema/types'
+
+// Each dedicated estimator must reproduce its family's own method (the published formula the
+// family implements and tests against its source); here it is held to that family's evaluate.
+function validParams(family: FamilyDefinition) {
+  return fc.record(Object.fromEntries(family.params.map((p) => [p.key, p.integer
+    ? fc.integer({ min: p.min, max: p.max })
+    : fc.double({ min: p.min, max: p.max, noNaN: true })]))).filter((params) => family.rules.every((r) => r.check(params as Record<string, number>) === null))
+}
+
+const closeTo = (observed: unknown, expected: unknown) => {
+  if (typeof expected === 'number' && typeof observed === 'number') return Math.abs(observed - expected) <= 1e-9 * Math.max(1, Math.abs(expected))
+  return observed === expected
+}
+
+describe('fast estimators', () => {
+  for (const family of families.filter((f) => dedicatedEstimators[f.id])) {
+    it(`${family.id}: equals the family's ${dedicatedEstimators[family.id].method} method`, () => {
+      const estimator = estimatorFor(family)
+      fc.assert(fc.property(validParams(family), fc.constantFrom('petg', 'pla', 'pp'), (params, material) => {
+        const expected = evaluate(family.id, { ...params, material }, { method: estimator.method })
+        const observed = estimator.estimate(params as Record<string, number>, expected.material.modulus, expected.material.strainLimit)
+        for (const [key, value] of Object.entries(observed)) {
+          if (!closeTo(value, expected.metrics[key])) throw new Error(`${key}: observed ${value}, expected ${expected.metrics[key]}`)
+        }
+        return true
+      }), { numRuns: 150 })
+    })
+  }
+
+  it('falls back to the family\u2019s own fast method when no dedicated estimator exists', () => {
+    const family = { ...families[0], id: 'made-up-copy' }
+    const estimator = estimatorFor(family)
+    expect(estimator.method).toBe(family.methods.find((m) => m.id !== 'nonlinear-fe')!.id)
+    const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
+    const expected = family.evaluate({ params, material: { id: null, name: '', modulus: 2000, strainLimit: 0.02 }, method: estimator.method }).metrics
+    expect(estimator.estimate(params, 2000, 0.02)).toEqual(expected)
+  })
+})
