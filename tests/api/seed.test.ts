@@ -122,6 +122,16 @@ describe('seedDemoData', () => {
       }
     })
 
+    it('releases only modules that pass their own checks at the defaults (strain safety, bistability)', async () => {
+      const { Entry, EntryRevision } = context.db.models
+      for (const entry of await Entry.findAll({ where: { status: 'released' } })) {
+        const revision = (await EntryRevision.findByPk(entry.currentRevisionId!))!
+        const safety = revision.metrics.safetyFactor
+        if (typeof safety === 'number') expect(safety, entry.name).toBeGreaterThanOrEqual(1 - 1e-9)
+        if (entry.familyId === 'bistable-beam') expect(revision.metrics.bistable, entry.name).toBe(true)
+      }
+    })
+
     it('releases the librarian\u2019s entries and lists the entry materials among the stored ones', async () => {
       const { Entry, Material, User } = context.db.models
       const librarian = (await User.findOne({ where: { email: 'librarian@demo.flexshelf.test' } }))!
