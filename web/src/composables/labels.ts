@@ -8,6 +8,12 @@ export const roleLabels: Record<Role, string> = {
   admin: 'Admin',
 }
 
+/** "an engineer", "a librarian": a role as it reads in a sentence. */
+export function roleInSentence(role: Role): string {
+  const word = roleLabels[role].toLowerCase()
+  return `${/^[aeiou]/.test(word) ? 'an' : 'a'} ${word}`
+}
+
 export const statusLabels: Record<EntryStatus, string> = {
   draft: 'Draft',
   in_review: 'In review',

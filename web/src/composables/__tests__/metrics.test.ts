@@ -62,3 +62,12 @@ describe('insideWindow', () => {
     expect(insideWindow(3, null)).toBe(false)
   })
 })
+
+describe('roleInSentence', () => {
+  it('puts the right article before each role', async () => {
+    const { roleInSentence } = await import('../labels')
+    expect(roleInSentence('engineer')).toBe('an engineer')
+    expect(roleInSentence('librarian')).toBe('a librarian')
+    expect(roleInSentence('admin')).toBe('an admin')
+  })
+})
