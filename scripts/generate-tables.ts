@@ -18,8 +18,8 @@ function bistableTable(): BistableTable {
   let failed = 0
   for (const q of axes.q) {
     for (const eta of axes.eta) {
-      for (const u of axes.u) {
-        const m = nodeMetrics(q, eta, u)
+      for (const p of axes.p) {
+        const m = nodeMetrics(q, eta, p)
         if (!Number.isFinite(m.peak)) failed++
         for (const k of TABLE_METRICS) values[k].push(Number.isFinite(m[k]) ? Number(m[k].toPrecision(SIGNIFICANT)) : NaN)
       }
@@ -41,7 +41,7 @@ function serialize(table: BistableTable): string {
     '  axes: {',
     `    q: ${list(table.axes.q)},`,
     `    eta: ${list(table.axes.eta)},`,
-    `    u: ${list(table.axes.u)},`,
+    `    p: ${list(table.axes.p)},`,
     '  },',
     '  values: {',
     ...TABLE_METRICS.map((k) => `    ${k}: ${list(table.values[k])},`),

@@ -23,7 +23,7 @@ export interface BistableEstimateParams {
  */
 export function estimateBistable(p: BistableEstimateParams, material: { modulus: number; strainLimit: number }): Record<string, MetricValue> | null {
   const c = tableCoordinates(p.span, p.apexHeight, p.thickness, p.postLength)
-  if (!interpolateTable(c.q, c.eta, c.u, scratch)) return null
+  if (!interpolateTable(c.q, c.eta, c.p, scratch)) return null
   const scale = (2 * material.modulus * ((p.depth * p.thickness ** 3) / 12) * p.apexHeight) / p.span ** 3
   const h = p.apexHeight
   const valley = scratch[slot.valley] * scale

@@ -1,10 +1,11 @@
 /**
  * The normalised performance table of the bistable pair, computed with the nonlinear solver.
  * In slender-beam theory the shape of the curve depends only on dimensionless groups:
- *   Q = apexHeight/thickness, η = apexHeight/span (how deep the arch is), and the end
- *   compliance of the side posts, u = log10(1 + 4·p³·(span/thickness)²) with p = postLength/span:
- *   a post bending as a cantilever, k = 3EI/L_p³, in series with the beam's EA/l gives
- *   EA/(l·k) = 4p³(l/t)² (REFERENCES.md §1, support compliance).
+ *   Q = apexHeight/thickness, η = apexHeight/span (how deep the arch is), and the side-post
+ *   length p = postLength/span. Posts act twice: their end rotation (∝ p) and their sideways
+ *   give, a cantilever k = 3EI/L_p³ in series with the beam's EA/l, EA/(l·k) = 4p³(span/thickness)²
+ *   (REFERENCES.md §1, support compliance) — so with span/thickness = Q/η the three groups
+ *   fix the shape. p is spaced quadratically: short posts already change the curve a lot.
  * Forces scale with 2·E·I·h/l³ (two beams), energies with that times h, strain with t·h/l².
  */
 import { solveBistableFe, type BistableGeometry } from './fe-model'
@@ -16,37 +17,36 @@ export type TableMetric = (typeof TABLE_METRICS)[number]
 export interface TableAxes {
   q: number[]
   eta: number[]
-  u: number[]
+  /** p = postLength/span. */
+  p: number[]
 }
 
 export interface BistableTable {
   solverVersion: number
   modelVersion: number
   axes: TableAxes
-  /** One flat array per metric, index = (iq·|eta| + ie)·|u| + iu; NaN where the solve failed. */
+  /** One flat array per metric, index = (iq·|eta| + ie)·|p| + ip; NaN where the solve failed. */
   values: Record<TableMetric, number[]>
 }
 
 export function defaultAxes(): TableAxes {
   const q = Array.from({ length: 28 }, (_, i) => 1.5 + 0.5 * i)
   const eta = Array.from({ length: 8 }, (_, i) => 0.002 * 100 ** (i / 7))
-  const u = Array.from({ length: 23 }, (_, i) => 0.25 * i)
-  return { q, eta, u }
+  const p = Array.from({ length: 25 }, (_, i) => 0.5 * (i / 24) ** 2)
+  return { q, eta, p }
 }
 
 /** The geometry of a table node, for a reference span of 100 mm and E = 1000 MPa. */
-export function nodeGeometry(q: number, eta: number, u: number): BistableGeometry {
+export function nodeGeometry(q: number, eta: number, p: number): BistableGeometry {
   const span = 100
   const apexHeight = eta * span
   const thickness = apexHeight / q
-  const r = span / thickness
-  const p = Math.cbrt((10 ** u - 1) / (4 * r * r))
   return { span, apexHeight, thickness, depth: 1, postLength: p * span, modulus: 1000 }
 }
 
 /** Normalised metrics of one node (NaN where the solver could not follow the path). */
-export function nodeMetrics(q: number, eta: number, u: number): Record<TableMetric, number> {
-  const g = nodeGeometry(q, eta, u)
+export function nodeMetrics(q: number, eta: number, p: number): Record<TableMetric, number> {
+  const g = nodeGeometry(q, eta, p)
   const scale = (2 * g.modulus * ((g.depth * g.thickness ** 3) / 12) * g.apexHeight) / g.span ** 3
   const h = g.apexHeight
   try {
