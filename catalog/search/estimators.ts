@@ -11,13 +11,18 @@ import { castiglianoStiffness, linearStrainAtForce, travelCap } from '../familie
 import { neckStrain, parosWeisbordCompliance, rotationRange } from '../families/notch-hinge/model'
 import { deflectionForce, rootStrainAt, wedgeForce } from '../families/snap-hook/model'
 import { evaluate as leafHingeModel } from '../families/leaf-hinge/model'
+import { estimateBistable } from '../families/bistable-beam/estimate'
 
 export type Estimate = Record<string, MetricValue>
 export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
 
 export interface FastEstimator {
-  /** The family method the estimate reproduces (reported with every result). */
+  /** How the estimate is made (reported with every result). */
   method: string
+  /** The family method it reproduces: exactly for closed forms, within the table's error for tables. */
+  reproduces: string
+  /** True when it equals `reproduces` to rounding; false for interpolated tables. */
+  exact: boolean
   estimate: EstimateFn
 }
 
@@ -48,6 +53,8 @@ function leafHingeEstimate(p: Record<string, number>, E: number, limit: number):
 export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Object.freeze({
   'parallel-guide': {
     method: 'linear',
+    reproduces: 'linear',
+    exact: true,
     estimate: (p, E, limit) => {
       const range = linearTravelRange(p, limit)
       const strain = linearStrain(p, range.maxTravel)
@@ -56,6 +63,8 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
   },
   'serpentine-spring': {
     method: 'castigliano',
+    reproduces: 'castigliano',
+    exact: true,
     estimate: (p, E, limit) => {
       const k = castiglianoStiffness(p.spans, p.spanLength, p.pitch, (E * p.depth * p.thickness ** 3) / 12)
       const perMm = linearStrainAtForce(p, E, k)
@@ -65,6 +74,8 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
   },
   'notch-hinge': {
     method: 'paros-weisbord',
+    reproduces: 'paros-weisbord',
+    exact: true,
     estimate: (p, E, limit) => {
       const compliance = parosWeisbordCompliance(E, p.depth, p.radius, p.neckThickness)
       const range = rotationRange(compliance, E, p.depth, p.neckThickness, limit)
@@ -74,6 +85,8 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
   },
   'snap-hook': {
     method: 'snap-fit-equations',
+    reproduces: 'snap-fit-equations',
+    exact: true,
     estimate: (p, E, limit) => {
       const ratio = p.tipThickness / p.rootThickness
       const P = deflectionForce(E, p.width, p.rootThickness, p.length, p.undercut, ratio)
@@ -84,8 +97,20 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
       }
     },
   },
+  'bistable-beam': {
+    method: 'table',
+    reproduces: 'nonlinear-fe',
+    exact: false,
+    estimate: (p, E, limit) => {
+      const e = estimateBistable({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength }, { modulus: E, strainLimit: limit })
+      if (!e) throw new RangeError('outside the precomputed bistable table')
+      return e
+    },
+  },
   'leaf-hinge': {
     method: 'prbm',
+    reproduces: 'prbm',
+    exact: true,
     estimate: leafHingeEstimate,
   },
 })
@@ -104,10 +129,12 @@ export function exactMethodOf(family: FamilyDefinition): string {
 
 export function estimatorFor(family: FamilyDefinition): FastEstimator {
   const dedicated = dedicatedEstimators[family.id]
-  if (dedicated && family.methods.some((m) => m.id === dedicated.method)) return dedicated
+  if (dedicated && family.methods.some((m) => m.id === dedicated.reproduces)) return dedicated
   const method = fastMethodOf(family)
   return {
     method,
+    reproduces: method,
+    exact: true,
     estimate: (params, modulus, strainLimit) =>
       family.evaluate({ params, material: { id: null, name: '', modulus, strainLimit }, method }).metrics,
   }

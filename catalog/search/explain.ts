@@ -24,7 +24,7 @@ export function reasonLabel(window: ForceWindow, reason: string): string {
     case 'footprint.length': return 'longer than the footprint'
     case 'footprint.width': return 'wider than the footprint'
     case 'rules': return 'outside the family\u2019s geometry rules'
-    default: return 'the model could not evaluate it'
+    default: return 'outside what the fast estimate covers'
   }
 }
 
@@ -59,6 +59,14 @@ export function explainEmpty(window: ForceWindow, _compiled: CompiledWindow, tal
     } else {
       text += ` The nearest was "${near.unit.entry.name}" in ${near.unit.material.name} (${params}): ${reasonLabel(window, near.score.reason ?? 'model')}.`
     }
+  }
+  else if (near && near.score.reason?.startsWith('footprint') && near.score.footprintMargin !== null && window.footprint) {
+    const env = near.unit.family.envelope(near.params)
+    const fp = window.footprint
+    const box = [fp.length, fp.width].map((v) => (v === undefined ? 'any' : num(v))).join(' × ')
+    text += ` The nearest was "${near.unit.entry.name}" at ${num(env.x)} × ${num(env.y)} mm against a footprint of ${box} mm (over by ${pct(-near.score.footprintMargin)}).`
+  } else if (near) {
+    text += ` The nearest was "${near.unit.entry.name}": ${reasonLabel(window, near.score.reason ?? 'model')}.`
   }
   if (tally.unprintable.length) text += ` Not printable on this printer: ${tally.unprintable.join('; ')}.`
   return text

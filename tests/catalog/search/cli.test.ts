@@ -13,7 +13,7 @@ function sink() {
 async function run(args: string[]) {
   const out = sink()
   const err = sink()
-  const code = await main(args, out as unknown as NodeJS.WriteStream, err as unknown as NodeJS.WriteStream)
+  const code = await main(args, out as unknown as typeof process.stdout, err as unknown as typeof process.stderr)
   return { code, out: out.text, err: err.text }
 }
 
