@@ -185,6 +185,7 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
       continue
     }
     result.steps++
+    if (done.stable && !trial.stable) result.stabilityLoss.push({ control: trial.lambda, reaction: trial.reaction })
     // across a turn of the path the previous state says nothing about the next step
     const turned = done.slope !== 0 && trial.slope !== 0 && Math.sign(done.slope) !== Math.sign(trial.slope)
     if (findExtrema && turned && done.slope !== 0 && trial.slope !== 0 && Math.sign(done.slope) !== Math.sign(trial.slope)) {

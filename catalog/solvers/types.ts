@@ -86,4 +86,9 @@ export interface PathResult {
    * continued on the stable branch the part snaps to (a jump in the curve, as on a test stand).
    */
   jumps: number[]
+  /**
+   * Where the path lost stability under displacement control (located to 10⁻⁴ of a station
+   * spacing): a bifurcation or limit point, e.g. the buckling load of a perfect column.
+   */
+  stabilityLoss: Array<{ control: number; reaction: number }>
 }

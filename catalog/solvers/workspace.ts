@@ -80,7 +80,7 @@ export class Workspace {
 
 /** The arrays of a PathResult being filled. */
 export function emptyResult(trackCount: number): PathResult {
-  return { control: [], reaction: [], maxStrain: [], tracked: Array.from({ length: trackCount }, () => []), iterations: 0, stable: [], extrema: [], steps: 0, jumps: [] }
+  return { control: [], reaction: [], maxStrain: [], tracked: Array.from({ length: trackCount }, () => []), iterations: 0, stable: [], extrema: [], steps: 0, jumps: [], stabilityLoss: [] }
 }
 
 export function recordPoint(result: PathResult, ws: Workspace, request: PathRequest, control: number, reaction: number, maxStrain: number, stable: boolean): number {
