@@ -85,3 +85,13 @@ export function buildGeometry(familyId: string, rawParams: unknown): unknown {
 }
 
 export { serializeStl } from './geometry/stl'
+
+// Search and the configure screen's checks (force window, tolerance band, printability).
+export { searchShelf, searchShelfSync, SearchCancelledError, createShelfIndex, DEMO_SHELF, windowCacheKey } from './search'
+export type { Shelf, ShelfEntry, SearchOptions, SearchProgress, SearchResult, SearchAnswer, SearchMaterial } from './search'
+export { parseWindow, judge, judgeWithBand } from './window'
+export type { ForceWindow, Judgement, MetricBand, PrinterProfile, ManufacturingTolerance } from './window'
+export { toleranceBand, DEFAULT_TOLERANCE, DEFAULT_TOLERANCE_NOTE } from './tolerance'
+export type { ToleranceBand } from './tolerance'
+export { checkPrintability, DEFAULT_PRINTER, printerRules } from './printability'
+export type { PrintabilityReport, PrintCheck, ParamFix } from './printability'
