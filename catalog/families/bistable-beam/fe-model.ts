@@ -74,11 +74,11 @@ export function halfBeamFrame(g: BistableGeometry, elements: number): { frame: F
 }
 
 /** Follows the module's force–displacement path from 0 to 2·apexHeight. */
-export function solveBistableFe(g: BistableGeometry, elements = FE_ELEMENTS, points = FE_POINTS): FeCurve {
+export function solveBistableFe(g: BistableGeometry, elements = FE_ELEMENTS, points = FE_POINTS, imperfectionAmplitude = IMPERFECTION): FeCurve {
   const { frame, mid, beamNodes } = halfBeamFrame(g, elements)
   // second symmetric shape 1 − cos(4πx/l): zero at the clamp and at mid-span
   const imperfection = beamNodes.map((node) => ({
-    node, dx: 0, dy: IMPERFECTION * g.thickness * (1 - Math.cos((4 * Math.PI * frame.nodes[node].x) / g.span)),
+    node, dx: 0, dy: imperfectionAmplitude * g.thickness * (1 - Math.cos((4 * Math.PI * frame.nodes[node].x) / g.span)),
   }))
   const path = followPath(frame, { control: { node: mid, dof: 1 }, target: -2 * g.apexHeight, points, imperfection })
   return {
