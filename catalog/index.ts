@@ -95,3 +95,7 @@ export { toleranceBand, DEFAULT_TOLERANCE, DEFAULT_TOLERANCE_NOTE } from './tole
 export type { ToleranceBand } from './tolerance'
 export { checkPrintability, DEFAULT_PRINTER, printerRules } from './printability'
 export type { PrintabilityReport, PrintCheck, ParamFix } from './printability'
+
+// Measured curves against predictions: fitted effective modulus, feature differences, calibration figures.
+export { fitModulus, compareToPrediction, calibrationSummary } from './calibration'
+export type { ModulusFit, CurveComparison, FeatureDifference, CalibrationGroup, SampledCurve } from './calibration'
