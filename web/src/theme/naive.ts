@@ -43,6 +43,17 @@ export function naiveOverrides(mode: ThemeMode): GlobalThemeOverrides {
     Button: { textColorPrimary: p.onSecondary, textColorHoverPrimary: p.onSecondary, textColorPressedPrimary: p.onSecondary, textColorFocusPrimary: p.onSecondary },
     DataTable: { thColor: p.surface, tdColor: p.surface, tdColorHover: p.sunken, thTextColor: p.inkMuted, thFontWeight: '500' },
     Card: { borderRadius: '10px' },
+    // alerts tinted, not filled: warnings are read, not shouted
+    Alert: {
+      colorWarning: mode === 'dark' ? 'rgba(227, 182, 100, 0.08)' : 'rgba(126, 83, 0, 0.05)',
+      borderWarning: `1px solid ${p.warning}66`,
+      titleTextColorWarning: p.ink,
+      iconColorWarning: p.warning,
+      colorError: mode === 'dark' ? 'rgba(242, 135, 125, 0.08)' : 'rgba(163, 48, 43, 0.05)',
+      borderError: `1px solid ${p.danger}66`,
+      titleTextColorError: p.ink,
+      iconColorError: p.danger,
+    },
   }
 }
 
