@@ -127,7 +127,8 @@ export function compileFrame(
     const s = e.section
     if (!(s.modulus > 0 && s.area > 0 && s.inertia > 0 && s.fibre >= 0)) fail(`element ${k} needs a positive modulus, area and inertia`)
     const dx = x[b] - x[a], dy = y[b] - y[a]
-    const L0 = Math.hypot(dx, dy)
+    // the same expression as the element uses for the current length, so the unloaded frame is exactly free of force
+    const L0 = Math.sqrt(dx * dx + dy * dy)
     if (!(L0 > 0)) fail(`element ${k} has zero length (nodes ${a} and ${b} coincide)`)
     connectivity[2 * k] = a
     connectivity[2 * k + 1] = b

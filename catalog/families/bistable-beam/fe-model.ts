@@ -82,8 +82,9 @@ export function solveBistableFe(g: BistableGeometry, elements = FE_ELEMENTS, poi
   }))
   const path = followPath(frame, { control: { node: mid, dof: 1 }, target: -2 * g.apexHeight, points, imperfection })
   return {
-    displacement: path.control.map((c) => -c),
-    force: path.reaction.map((r) => -4 * r),
+    // + 0 turns −0 into 0
+    displacement: path.control.map((c) => -c + 0),
+    force: path.reaction.map((r) => -4 * r + 0),
     strain: path.maxStrain,
     path,
   }

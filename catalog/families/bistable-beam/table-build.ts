@@ -31,7 +31,7 @@ export interface BistableTable {
 
 export function defaultAxes(): TableAxes {
   const q = Array.from({ length: 28 }, (_, i) => 1.5 + 0.5 * i)
-  const eta = Array.from({ length: 8 }, (_, i) => 0.002 * 100 ** (i / 7))
+  const eta = Array.from({ length: 16 }, (_, i) => 0.002 * 100 ** (i / 15))
   const p = Array.from({ length: 25 }, (_, i) => 0.5 * (i / 24) ** 2)
   return { q, eta, p }
 }

@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest'
+import { evaluate } from '../../../catalog'
+import { estimateBistable } from '../../../catalog/families/bistable-beam'
+import { BISTABLE_MODEL_VERSION } from '../../../catalog/families/bistable-beam/fe-model'
+import { nodeMetrics, TABLE_METRICS } from '../../../catalog/families/bistable-beam/table-build'
+import { TABLE } from '../../../catalog/families/bistable-beam/table-data'
+import { SOLVER_VERSION } from '../../../catalog/solvers'
+
+function quantile(values: number[], q: number): number {
+  const s = [...values].sort((a, b) => a - b)
+  return s[Math.min(s.length - 1, Math.floor(q * s.length))]
+}
+
+/** Seeded valid parameter sets (inside the family's cross-field rules). */
+function samples(count: number, withPosts: boolean): Array<Record<string, number>> {
+  let seed = 11
+  const rnd = () => { seed = (seed * 16807) % 2147483647; return seed / 2147483647 }
+  const out: Array<Record<string, number>> = []
+  while (out.length < count) {
+    const span = 20 + rnd() * 100, thickness = 0.4 + rnd() * 2.6, apexHeight = thickness * (1.5 + rnd() * 13.5)
+    if (apexHeight > 0.2 * span || thickness > span / 20) continue
+    out.push({ span, apexHeight, thickness, depth: 5, postLength: withPosts ? rnd() * 0.3 * span : 0 })
+  }
+  return out
+}
+
+describe('bistable-beam performance table', () => {
+  it('was generated with the current solver and frame model (run npm run tables after changing either)', () => {
+    expect(TABLE.solverVersion).toBe(SOLVER_VERSION)
+    expect(TABLE.modelVersion).toBe(BISTABLE_MODEL_VERSION)
+  })
+
+  it('re-solved nodes reproduce the stored values (a solver change without regenerating fails here)', () => {
+    const { q, eta, p } = TABLE.axes
+    for (const [iq, ie, ip] of [[3, 2, 0], [10, 5, 3], [20, 1, 8], [5, 7, 12]]) {
+      const observed = nodeMetrics(q[iq], eta[ie], p[ip])
+      const index = (iq * eta.length + ie) * p.length + ip
+      for (const key of TABLE_METRICS) {
+        const expected = TABLE.values[key][index]
+        expect(Math.abs(observed[key] - expected), `${key} at node ${index}`).toBeLessThanOrEqual(1e-5 * Math.max(1, Math.abs(expected)))
+      }
+    }
+  })
+
+  it('interpolation error against direct solves, rigid ends: median within 1 %, all within 2 % of the peak (trilinear, grid step ΔQ = 0.5)', () => {
+    // tolerance: linear interpolation errs by about ΔQ²/8·|∂²f/∂Q²| ≈ 0.3 % in Q, plus the η axis;
+    // 2 % leaves room for the bends where the curve's peak moves along the path
+    const errors = samples(40, false).map((p) => {
+      const direct = evaluate('bistable-beam', { ...p, modulus: 2000 }).metrics
+      const table = estimateBistable(p as never, { modulus: 2000, strainLimit: 0.02 })!
+      const scale = direct.peakForce as number
+      return Math.max(Math.abs((table.peakForce as number) - scale), Math.abs((table.valleyForce as number) - (direct.valleyForce as number))) / scale
+    })
+    expect(Math.max(...errors)).toBeLessThan(0.02)
+    expect(quantile(errors, 0.5)).toBeLessThan(0.01)
+  })
+
+  it('interpolation error against direct solves, with side posts: median within 2 %, 90 % of cases within 5 % of the peak', () => {
+    // posts move the peak from inside the travel to its end and switch bistability on and off;
+    // the metrics bend sharply there, so a few cells near those lines err by more
+    const errors: number[] = []
+    let flips = 0
+    for (const p of samples(60, true)) {
+      const direct = evaluate('bistable-beam', { ...p, modulus: 2000 }).metrics
+      const table = estimateBistable(p as never, { modulus: 2000, strainLimit: 0.02 })
+      if (!table) continue
+      if (table.bistable !== direct.bistable) flips++
+      const scale = direct.peakForce as number
+      errors.push(Math.max(Math.abs((table.peakForce as number) - scale), Math.abs((table.valleyForce as number) - (direct.valleyForce as number))) / scale)
+    }
+    expect(errors.length).toBeGreaterThanOrEqual(55)
+    expect(quantile(errors, 0.5)).toBeLessThan(0.02)
+    expect(quantile(errors, 0.9)).toBeLessThan(0.05)
+    expect(flips).toBeLessThanOrEqual(2)
+  })
+})
