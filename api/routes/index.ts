@@ -6,6 +6,8 @@ import { entriesRouter } from './entries'
 import { familiesRouter } from './families'
 import { healthRouter } from './health'
 import { materialsRouter } from './materials'
+import { searchesRouter, searchRouter } from './search'
+import { shelfRouter } from './shelf'
 import { usersRouter } from './users'
 
 /** Every resource router and where it is mounted (relative to /api). */
@@ -17,6 +19,9 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },
     { path: '/entries', router: entriesRouter(context) },
+    { path: '/shelf', router: shelfRouter(context) },
+    { path: '/search', router: searchRouter(context) },
+    { path: '/searches', router: searchesRouter(context) },
     { path: '/audit', router: auditRouter(context) },
   ]
 }

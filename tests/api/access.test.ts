@@ -29,7 +29,8 @@ const statuses = (anonymous: number, engineer: number, contributor: number, libr
 
 let t: TestApp
 const tokens = {} as Record<Role, string>
-const fixture = { targetUserId: 0, draftEntryId: 0, releasedEntryId: 0 }
+const fixture = { targetUserId: 0, draftEntryId: 0, releasedEntryId: 0, adminSearchId: '' }
+const SEARCH_WINDOW = { kind: 'spring', stiffness: { min: 0.1, max: 1 }, limit: 3 }
 let accounts = 0
 
 const SIGNIN_ACCOUNT = { email: 'table.signin@example.test', password: 'table password 1', displayName: 'Sela Marr' }
@@ -70,6 +71,12 @@ const ROWS: Row[] = [
     expected: statuses(401, 404, 200, 200, 200),
   },
   { route: 'GET /api/audit', path: () => '/api/audit', expected: statuses(401, 403, 403, 403, 200) },
+  // search: any signed-in user; a search job is its owner's alone (others get 404)
+  { route: 'GET /api/shelf', path: () => '/api/shelf', expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'POST /api/search', path: () => '/api/search', body: () => SEARCH_WINDOW, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'POST /api/searches', path: () => '/api/searches', body: () => SEARCH_WINDOW, expected: statuses(401, 202, 202, 202, 202) },
+  { route: 'GET /api/searches/:id/events', path: () => `/api/searches/${fixture.adminSearchId}/events`, expected: statuses(401, 404, 404, 404, 200) },
+  { route: 'DELETE /api/searches/:id', path: () => `/api/searches/${fixture.adminSearchId}`, expected: statuses(401, 404, 404, 404, 204) },
 ]
 
 beforeAll(async () => {
@@ -85,12 +92,13 @@ beforeAll(async () => {
   fixture.draftEntryId = (await entry('Access table draft', 'draft', contributor.id)).id
   fixture.releasedEntryId = (await entry('Access table release', 'released', librarian.id)).id
   for (const role of ROLES) tokens[role] = await signInAs(t.app, role)
+  fixture.adminSearchId = (await request(t.app).post('/api/searches').set(bearer(tokens.admin)).send(SEARCH_WINDOW).expect(202)).body.id
 })
 afterAll(() => t.close())
 
 async function call(row: Row, caller: Caller) {
   const [method] = row.route.split(' ')
-  let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'patch'](row.path())
+  let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](row.path())
   if (caller !== 'anonymous') {
     const token = row.freshToken ? await signIn(t.app, demoEmail(caller)) : tokens[caller]
     req = req.set(bearer(token))

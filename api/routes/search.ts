@@ -1,0 +1,58 @@
+import { Router, type Request, type Response } from 'express'
+import type { AppContext } from '../context'
+import { currentAuth } from '../middleware/authenticate'
+import { allow } from '../middleware/require-role'
+import { searchService, type JobEvent } from '../services/search'
+
+/** Comment lines keep idle event streams open through proxies, ms. */
+const HEARTBEAT_MS = 15_000
+
+/** POST /api/search: one search answered in the response. */
+export function searchRouter(context: AppContext): Router {
+  const router = Router()
+  const service = searchService(context)
+
+  async function search(req: Request, res: Response) {
+    const leaving = new AbortController()
+    res.on('close', () => { if (!res.writableFinished) leaving.abort() })
+    const { answer, cached } = await service.search(req.body, leaving.signal)
+    res.set('Flexshelf-Cache', cached ? 'hit' : 'miss').json(answer)
+  }
+
+  router.post('/', allow('engineer'), search)
+  return router
+}
+
+/** /api/searches: search jobs with progress as server-sent events, and cancellation. */
+export function searchesRouter(context: AppContext): Router {
+  const router = Router()
+  const service = searchService(context)
+
+  async function start(req: Request, res: Response) {
+    const job = await service.start(currentAuth(req).user.id, req.body)
+    res.status(202).json({ id: job.id, status: job.status, cached: job.cached })
+  }
+
+  function events(req: Request<{ id: string }>, res: Response) {
+    const job = service.job(currentAuth(req).user.id, req.params.id)
+    res.status(200).set({ 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' })
+    res.flushHeaders()
+    const send = ({ event, data }: JobEvent) => {
+      res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`)
+      if (event !== 'progress') res.end()
+    }
+    const heartbeat = setInterval(() => res.write(': still searching\n\n'), HEARTBEAT_MS)
+    const stop = service.follow(job, send)
+    res.on('close', () => { clearInterval(heartbeat); stop() })
+  }
+
+  function cancel(req: Request<{ id: string }>, res: Response) {
+    service.cancel(service.job(currentAuth(req).user.id, req.params.id))
+    res.status(204).end()
+  }
+
+  router.post('/', allow('engineer'), start)
+  router.get('/:id/events', allow('engineer'), events)
+  router.delete('/:id', allow('engineer'), cancel)
+  return router
+}
