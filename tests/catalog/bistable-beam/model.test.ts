@@ -89,7 +89,7 @@ describe('bistable-beam (evaluate)', () => {
 
 function capture() {
   let text = ''
-  return { stream: { write: (s: string) => { text += s; return true } } as unknown as Parameters<typeof main>[1], text: () => text }
+  return { stream: { write: (s: string) => { text += s; return true } } as never, text: () => text }
 }
 
 describe('flexshelf evaluate bistable-beam (CLI)', () => {

@@ -1,0 +1,113 @@
+/**
+ * Benchmark section: the bistable curved-beam pair. For a table of cases: median time of one
+ * full nonlinear curve (≥ 101 points to 2·apexHeight, default mesh), its peak and valley
+ * error against a 160-element mesh, closed-form and table-interpolation evaluations per
+ * second; then the table's interpolation error against direct solves. Asserts nothing.
+ */
+import { closedFormMetrics } from '../../catalog/families/bistable-beam/closed-form'
+import { snapMetrics } from '../../catalog/families/bistable-beam/curve-metrics'
+import { estimateBistable } from '../../catalog/families/bistable-beam/estimate'
+import { solveBistableFe, type BistableGeometry } from '../../catalog/families/bistable-beam/fe-model'
+import { evaluate } from '../../catalog/index'
+
+const CASES: Array<{ label: string; g: BistableGeometry }> = [
+  { label: 'defaults (Q 3.1)', g: { span: 60, apexHeight: 2.5, thickness: 0.8, depth: 6, postLength: 0, modulus: 2000 } },
+  { label: 'CLI example (Q 5)', g: { span: 40, apexHeight: 3, thickness: 0.6, depth: 5, postLength: 0, modulus: 2000 } },
+  { label: 'near critical (Q 2.5)', g: { span: 50, apexHeight: 2, thickness: 0.8, depth: 5, postLength: 0, modulus: 2000 } },
+  { label: 'tall (Q 10)', g: { span: 100, apexHeight: 8, thickness: 0.8, depth: 5, postLength: 0, modulus: 2000 } },
+  { label: 'side posts 3 mm (Q 6)', g: { span: 60, apexHeight: 4.8, thickness: 0.8, depth: 5, postLength: 3, modulus: 2000 } },
+  { label: 'thick (span/t 25)', g: { span: 30, apexHeight: 3.6, thickness: 1.2, depth: 5, postLength: 0, modulus: 2000 } },
+]
+const RUNS = 40
+const RATE_MS = 300
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b)
+  const m = s.length >> 1
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2
+}
+
+function perSecond(fn: (i: number) => number): number {
+  let sink = 0, n = 0
+  const started = performance.now()
+  while (performance.now() - started < RATE_MS) for (let k = 0; k < 1000; k++) sink += fn(n++)
+  if (sink === 42.4242) console.log('')
+  return n / ((performance.now() - started) / 1000)
+}
+
+export interface BistableBenchRow {
+  case: string
+  'curve ms (median)': number
+  points: number
+  'peak err %': number
+  'valley err %': number
+  'valley err % of peak': number
+  'closed-form /s': number
+  'table /s': number
+}
+
+export function run(): { rows: BistableBenchRow[]; interpolation: Record<string, number> } {
+  const rows: BistableBenchRow[] = []
+  for (const { label, g } of CASES) {
+    for (let i = 0; i < 5; i++) solveBistableFe(g)
+    const times: number[] = []
+    let curve = solveBistableFe(g)
+    for (let i = 0; i < RUNS; i++) {
+      const t0 = performance.now()
+      curve = solveBistableFe(g)
+      times.push(performance.now() - t0)
+    }
+    const m = snapMetrics(curve.displacement, curve.force)
+    const fine = solveBistableFe(g, 160)
+    const ref = snapMetrics(fine.displacement, fine.force)
+    const q = g.apexHeight / g.thickness
+    rows.push({
+      case: label,
+      'curve ms (median)': median(times),
+      points: curve.displacement.length,
+      'peak err %': (100 * Math.abs(m.peakForce - ref.peakForce)) / ref.peakForce,
+      'valley err %': (100 * Math.abs(m.valleyForce - ref.valleyForce)) / Math.abs(ref.valleyForce),
+      'valley err % of peak': (100 * Math.abs(m.valleyForce - ref.valleyForce)) / ref.peakForce,
+      'closed-form /s': Math.round(perSecond((i) => closedFormMetrics(q + (i % 8) * 1e-3).peak)),
+      'table /s': Math.round(perSecond((i) => (estimateBistable({ ...g, span: g.span + (i % 16) * 0.01 }, { modulus: 2000, strainLimit: 0.02 })?.peakForce as number) ?? 0)),
+    })
+  }
+  // interpolation error of the table against direct solves over seeded valid parameters
+  let seed = 5
+  const rnd = () => { seed = (seed * 16807) % 2147483647; return seed / 2147483647 }
+  const rigid: number[] = [], posted: number[] = []
+  while (rigid.length + posted.length < 120) {
+    const span = 20 + rnd() * 100, thickness = 0.4 + rnd() * 2.6, apexHeight = thickness * (1.5 + rnd() * 13.5)
+    if (apexHeight > 0.2 * span || thickness > span / 20) continue
+    const postLength = rigid.length < 60 ? 0 : rnd() * 0.3 * span
+    const p = { span, apexHeight, thickness, depth: 5, postLength }
+    const direct = evaluate('bistable-beam', { ...p, modulus: 2000 }).metrics
+    const est = estimateBistable(p, { modulus: 2000, strainLimit: 0.02 })
+    if (!est) continue
+    const e = Math.max(Math.abs((est.peakForce as number) - (direct.peakForce as number)), Math.abs((est.valleyForce as number) - (direct.valleyForce as number))) / (direct.peakForce as number)
+    ;(postLength === 0 ? rigid : posted).push(100 * e)
+  }
+  const q = (a: number[], f: number) => [...a].sort((x, y) => x - y)[Math.min(a.length - 1, Math.floor(f * a.length))]
+  return {
+    rows,
+    interpolation: {
+      'rigid ends: median %': q(rigid, 0.5), 'rigid ends: p90 %': q(rigid, 0.9), 'rigid ends: max %': Math.max(...rigid),
+      'side posts: median %': q(posted, 0.5), 'side posts: p90 %': q(posted, 0.9), 'side posts: max %': Math.max(...posted),
+    },
+  }
+}
+
+export function format(result: ReturnType<typeof run>): string {
+  const keys = Object.keys(result.rows[0]) as Array<keyof BistableBenchRow>
+  const cell = (v: unknown) => (typeof v === 'number' ? (v >= 1000 ? v.toExponential(2) : Number(v.toPrecision(3)).toString()) : String(v))
+  const widths = keys.map((k) => Math.max(k.length, ...result.rows.map((r) => cell(r[k]).length)))
+  const line = (vals: string[]) => vals.map((v, i) => (i === 0 ? v.padEnd(widths[i]) : v.padStart(widths[i]))).join('  ')
+  const lines = [line(keys as string[]), line(widths.map((w) => '-'.repeat(w))), ...result.rows.map((r) => line(keys.map((k) => cell(r[k]))))]
+  lines.push('', 'Table interpolation error against direct nonlinear-fe solves (peak/valley, % of the peak, 60 cases each):')
+  for (const [k, v] of Object.entries(result.interpolation)) lines.push(`  ${k.padEnd(22)} ${v.toFixed(2)}`)
+  return lines.join('\n')
+}
+
+export const title = 'Bistable curved-beam pair: nonlinear curve time, mesh error, closed-form and table throughput'
+
+export default { title, run, format }
