@@ -16,7 +16,7 @@
  * Beams are sampled with BEAM_SEGMENTS = 240 segments each (see catalog/geometry/outline).
  */
 import type { Geom2, Geom3 } from '@jscad/modeling/src/geometries/types'
-import { box, cosineBeamPoints, extrudeOutline, hole, polygon } from '../../geometry/outline'
+import { box, cosineBeamPoints, extrudeOutline, hole, polygon, postedBeamPoints } from '../../geometry/outline'
 
 export const FRAME_WALL = 8
 export const FRAME_BASE = 4
@@ -102,20 +102,23 @@ export function build(params: Record<string, number>): Geom3 {
     box(right, L.frameBottom, right + FRAME_WALL, L.wallTop),
     box(L.innerX - FRAME_WALL, L.frameBottom, right + FRAME_WALL, L.baseTop),
   ]
-  // rigid ends reach into the walls; with posts the beam ends stop inside the post tops
-  const extension = p > 0 ? t / 4 : FRAME_WALL / 2
-  for (const yOffset of [0, L.beamOffset]) {
-    solids.push(polygon(cosineBeamPoints({ span, apexHeight, thickness: t, yOffset, extension })))
-  }
   if (p > 0) {
-    for (const [x0, x1] of [[L.innerX - ANCHOR_OVERLAP, half], [span - half, right + ANCHOR_OVERLAP]]) {
-      // lower posts stand on pedestals (or the base bar), upper posts on ledges from the walls
-      if (-p > L.baseTop) solids.push(box(x0, L.baseTop - ANCHOR_OVERLAP, x1, -p))
-      solids.push(box(x0, L.beamOffset - p - LEDGE, x1, L.beamOffset - p))
-    }
-    for (const xc of [0, span]) {
-      solids.push(box(xc - half, -p - ANCHOR_OVERLAP, xc + half, half))
-      solids.push(box(xc - half, L.beamOffset - p - ANCHOR_OVERLAP, xc + half, L.beamOffset + half))
+    // lower posts stand on pedestals (or reach into the base bar), upper posts on ledges from the walls
+    const pedestal = -p > L.baseTop
+    solids.push(polygon(postedBeamPoints({
+      span, apexHeight, thickness: t, postLength: p,
+      blockBottom: L.baseTop - ANCHOR_OVERLAP,
+      blockOuterX: pedestal ? L.innerX - ANCHOR_OVERLAP : -half,
+    })))
+    solids.push(polygon(postedBeamPoints({
+      span, apexHeight, thickness: t, postLength: p, yOffset: L.beamOffset,
+      blockBottom: L.beamOffset - p - LEDGE,
+      blockOuterX: L.innerX - ANCHOR_OVERLAP,
+    })))
+  } else {
+    // rigid ends reach straight into the walls
+    for (const yOffset of [0, L.beamOffset]) {
+      solids.push(polygon(cosineBeamPoints({ span, apexHeight, thickness: t, yOffset, extension: FRAME_WALL / 2 })))
     }
   }
   const mid = span / 2

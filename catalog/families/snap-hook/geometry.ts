@@ -16,7 +16,7 @@
  */
 import type { Geom3 } from '@jscad/modeling/src/geometries/types'
 import { ValidationError } from '../../errors'
-import { box, extrudeOutline, hole, polygon, type Point } from '../../geometry/outline'
+import { extrudeOutline, hole, polygon, type Point } from '../../geometry/outline'
 
 export const BASE_LENGTH = 8
 export const BASE_MARGIN = 3
@@ -24,7 +24,6 @@ export const HEAD_LAND = 0.5
 export const HOLE_DIAMETER = 3.2
 /** The head may take at most this share of the arm, so the arm still bends as a cantilever. */
 export const MAX_HEAD_SHARE = 0.5
-const ARM_ANCHOR = 1
 const deg = Math.PI / 180
 
 export interface SnapHookLayout {
@@ -80,12 +79,23 @@ export function envelope(params: Record<string, number>): { x: number; y: number
 export function build(params: Record<string, number>): Geom3 {
   const problem = headFitProblem(params)
   if (problem) throw new ValidationError([{ field: 'undercut', message: problem }])
-  const { length: l, rootThickness: h0, tipThickness: h1, width } = params
+  const { length: l, rootThickness: h0, width } = params
   const L = layout(params)
-  const solids = [
-    box(-BASE_LENGTH, -BASE_MARGIN, 0, h0 + BASE_MARGIN),
-    polygon([[-ARM_ANCHOR, 0], [l, 0], [l, h1], [0, h0], [-ARM_ANCHOR, h0]]),
-    polygon(L.head),
-  ]
-  return extrudeOutline(solids, [hole(L.hole.x, L.hole.y, L.hole.diameter)], width)
+  const [, , tip, entryTop, landEnd, foot] = L.head
+  // base, arm and head written as one simple outline: at shallow angles the head's faces run
+  // nearly along the arm's, and a boolean union would leave slivers there
+  const outline = polygon([
+    [-BASE_LENGTH, -BASE_MARGIN],
+    [0, -BASE_MARGIN],
+    [0, 0],
+    [l, 0],
+    tip,
+    entryTop,
+    landEnd,
+    foot,
+    [0, h0],
+    [0, h0 + BASE_MARGIN],
+    [-BASE_LENGTH, h0 + BASE_MARGIN],
+  ])
+  return extrudeOutline([outline], [hole(L.hole.x, L.hole.y, L.hole.diameter)], width)
 }
