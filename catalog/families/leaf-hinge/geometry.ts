@@ -6,7 +6,7 @@
  * Derived dimensions (mm): both links LINK_HEIGHT = 8 across (fixed, at least twice the
  * thickest blade allowed); the moving link is `linkLength` long; the fixed link is
  * max(linkLength, FIXED_LINK_MIN = 10) long so its M3 clearance hole (HOLE_DIAMETER = 3.2,
- * centred in the fixed link) always has at least 3.4 mm of material around it.
+ * centred in the fixed link) always has at least 2.4 mm of material around it.
  * Layout along x: fixed link [−fixedLength, 0], blade [0, length], moving link beyond.
  */
 import type { Geom3 } from '@jscad/modeling/src/geometries/types'
