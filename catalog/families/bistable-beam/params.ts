@@ -1,3 +1,4 @@
+import { nearlyEqual } from '../../numeric'
 import type { CrossRule, ParamSpec } from '../../schema/types'
 
 /** Parameters of the bistable curved-beam pair; lengths mm. */
@@ -38,8 +39,9 @@ export const rules: CrossRule[] = [
     fields: ['apexHeight', 'thickness'],
     check: (p) => {
       const q = p.apexHeight / p.thickness
-      if (q < MIN_RATIO) return `apexHeight must be at least ${MIN_RATIO} × the thickness (now ${fmt(q)} ×, ${fmt(MIN_RATIO * p.thickness)} mm for this thickness): flatter beams hardly snap`
-      if (q > MAX_RATIO) return `apexHeight must be at most ${MAX_RATIO} × the thickness (now ${fmt(q)} ×, ${fmt(MAX_RATIO * p.thickness)} mm for this thickness): taller arches strain past printable limits`
+      // compared through nearlyEqual so a ratio on the boundary (0.3 / 0.2) is not refused by rounding
+      if (q < MIN_RATIO && !nearlyEqual(q, MIN_RATIO)) return `apexHeight must be at least ${MIN_RATIO} × the thickness (now ${fmt(q)} ×, ${fmt(MIN_RATIO * p.thickness)} mm for this thickness): flatter beams hardly snap`
+      if (q > MAX_RATIO && !nearlyEqual(q, MAX_RATIO)) return `apexHeight must be at most ${MAX_RATIO} × the thickness (now ${fmt(q)} ×, ${fmt(MAX_RATIO * p.thickness)} mm for this thickness): taller arches strain past printable limits`
       return null
     },
   },
