@@ -26,6 +26,10 @@ export interface Config {
   version: string
   /** Seed the demo users, materials and entries at start-up (never in production). */
   seedDemo: boolean
+  /** Notification e-mail: SMTP only when a URL is set; otherwise the local outbox (docs/api.md, "Notifications"). */
+  mail: { smtpUrl: string | null; from: string }
+  /** Largest test-report CSV and photo accepted, in bytes. */
+  uploadLimits: { csvBytes: number; photoBytes: number }
 }
 
 /** bcrypt cost of 2^12 rounds: about a quarter second per hash on a laptop core. */
@@ -105,6 +109,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     bodyLimit: '256kb',
     version: readVersion(),
     seedDemo: !production,
+    mail: {
+      smtpUrl: env.FLEXSHELF_SMTP_URL || null,
+      from: env.FLEXSHELF_MAIL_FROM || 'Flexshelf <flexshelf@localhost>',
+    },
+    uploadLimits: { csvBytes: 2 * 1024 * 1024, photoBytes: 5 * 1024 * 1024 },
     ...overrides,
   }
   return config

@@ -25,3 +25,4 @@ export function validationFailed(issues: FieldIssue[]): HttpError {
 export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`)
 export const forbidden = (message = 'your role does not allow this') => new HttpError(403, 'forbidden', message)
 export const unauthenticated = (message = 'sign in first') => new HttpError(401, 'unauthenticated', message)
+export const conflict = (message: string, details: Record<string, unknown> | null = null) => new HttpError(409, 'conflict', message, details)

@@ -2,10 +2,14 @@ import type { Router } from 'express'
 import type { AppContext } from '../context'
 import { auditRouter } from './audit'
 import { authRouter } from './auth'
+import { curationRouter } from './curation'
 import { entriesRouter } from './entries'
 import { familiesRouter } from './families'
 import { healthRouter } from './health'
 import { materialsRouter } from './materials'
+import { outboxRouter } from './outbox'
+import { entryReportsRouter, reportsRouter } from './reports'
+import { reviewQueueRouter } from './review-queue'
 import { searchesRouter, searchRouter } from './search'
 import { shelfRouter } from './shelf'
 import { usersRouter } from './users'
@@ -19,6 +23,11 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },
     { path: '/entries', router: entriesRouter(context) },
+    { path: '/entries', router: curationRouter(context) },
+    { path: '/entries', router: entryReportsRouter(context) },
+    { path: '/reports', router: reportsRouter(context) },
+    { path: '/review-queue', router: reviewQueueRouter(context) },
+    { path: '/outbox', router: outboxRouter(context) },
     { path: '/shelf', router: shelfRouter(context) },
     { path: '/search', router: searchRouter(context) },
     { path: '/searches', router: searchesRouter(context) },

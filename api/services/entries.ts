@@ -5,6 +5,8 @@ import type { AppContext } from '../context'
 import type { Entry, EntryRevision, TestReport, User } from '../db'
 import { notFound } from '../errors'
 import { hasRole } from '../roles'
+import { listMaterials } from './materials'
+import { compareReport } from './report-comparison'
 
 type Person = { id: number; displayName: string }
 
@@ -36,6 +38,8 @@ function toEntrySummary(entry: Entry) {
     summary: entry.summary,
     tags: entry.tags,
     status: entry.status,
+    /** A change proposal names the released entry it would revise. */
+    proposalForId: entry.proposalForId ?? null,
     owner: person(entry.owner),
     currentRevision: revision ? { id: revision.id, number: revision.number, metrics: revision.metrics } : null,
     updatedAt: entry.updatedAt.toISOString(),
@@ -74,6 +78,8 @@ export function toReportView(report: TestReport) {
     orientation: report.orientation,
     testSpeed: report.testSpeed,
     notes: report.notes,
+    reviewNote: report.reviewNote ?? '',
+    reviewedAt: report.reviewedAt ? report.reviewedAt.toISOString() : null,
     measuredCurve: report.measuredCurve,
     createdAt: report.createdAt.toISOString(),
   }
@@ -89,7 +95,8 @@ function summaryIncludes(context: AppContext) {
 
 export async function listEntries(context: AppContext, viewer: User): Promise<EntrySummary[]> {
   const entries = await context.db.models.Entry.findAll({
-    where: visibleTo(viewer),
+    // a merged proposal lives on as a revision of its entry; it is read by id, not listed
+    where: { [Op.and]: [visibleTo(viewer), { status: { [Op.ne]: 'merged' } }] },
     include: summaryIncludes(context),
     order: [['name', 'ASC'], ['id', 'ASC']],
   })
@@ -102,9 +109,19 @@ export function parseEntryId(raw: string): number {
   return id
 }
 
-/** The entry with its revisions (oldest first) and test reports; 404 when not visible. */
+/** Librarians see every report; others the accepted ones and their own. */
+export function reportsVisibleTo(viewer: User): WhereOptions<TestReport> {
+  if (hasRole(viewer.role, 'librarian')) return {}
+  return { [Op.or]: [{ status: 'accepted' }, { uploaderId: viewer.id }] }
+}
+
+/**
+ * The entry with its revisions (oldest first), the test reports the viewer may see (each
+ * compared with its revision's prediction), review comments and open change proposals;
+ * 404 when not visible.
+ */
 export async function showEntry(context: AppContext, viewer: User, id: number) {
-  const { Entry, EntryRevision, TestReport, User } = context.db.models
+  const { Entry, EntryComment, EntryRevision, TestReport, User } = context.db.models
   const entry = await Entry.findOne({ where: { [Op.and]: [{ id }, visibleTo(viewer)] }, include: summaryIncludes(context) })
   if (!entry) throw notFound('entry')
   const revisions = await EntryRevision.findAll({
@@ -113,13 +130,25 @@ export async function showEntry(context: AppContext, viewer: User, id: number) {
     order: [['number', 'ASC']],
   })
   const reports = await TestReport.findAll({
-    where: { entryId: entry.id },
+    where: { [Op.and]: [{ entryId: entry.id }, reportsVisibleTo(viewer)] },
     include: [
       { model: User, as: 'uploader', attributes: ['id', 'displayName'] },
       { model: User, as: 'reviewer', attributes: ['id', 'displayName'] },
     ],
     order: [['createdAt', 'ASC'], ['id', 'ASC']],
   })
+  const comments = await EntryComment.findAll({
+    where: { entryId: entry.id },
+    include: [{ model: User, as: 'author', attributes: ['id', 'displayName'] }],
+    order: [['createdAt', 'ASC'], ['id', 'ASC']],
+  })
+  const proposals = await Entry.findAll({
+    where: { [Op.and]: [{ proposalForId: entry.id, status: { [Op.in]: ['draft', 'in_review'] } }, visibleTo(viewer)] },
+    include: summaryIncludes(context),
+    order: [['id', 'ASC']],
+  })
+  const proposalFor = entry.proposalForId ? await Entry.findByPk(entry.proposalForId, { attributes: ['id', 'name', 'status', 'currentRevisionId'] }) : null
+  const materials = reports.length ? await listMaterials(context) : []
   return {
     ...toEntrySummary(entry),
     defaultParams: entry.defaultParams,
@@ -127,6 +156,15 @@ export async function showEntry(context: AppContext, viewer: User, id: number) {
     materials: entry.materials,
     notes: entry.notes,
     revisions: revisions.map(toRevisionView),
-    reports: reports.map(toReportView),
+    reports: reports.map((report) => {
+      const revision = revisions.find((r) => r.id === report.revisionId)
+      const { comparison, problem } = revision
+        ? compareReport(entry.familyId, report, revision, materials)
+        : { comparison: null, problem: 'the revision this report tested is gone' }
+      return { ...toReportView(report), comparison, comparisonProblem: problem }
+    }),
+    comments: comments.map((c) => ({ id: c.id, kind: c.kind, text: c.text, author: person(c.author), createdAt: c.createdAt.toISOString() })),
+    proposalFor: proposalFor ? { id: proposalFor.id, name: proposalFor.name, status: proposalFor.status, currentRevisionId: proposalFor.currentRevisionId } : null,
+    proposals: proposals.map(toEntrySummary),
   }
 }

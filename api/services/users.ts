@@ -6,6 +6,7 @@ import { forbidden, notFound } from '../errors'
 import { ASSIGNABLE_ROLES, type Role } from '../roles'
 import { bodySchema, parseBody } from '../validation'
 import { recordAudit } from './audit'
+import { notify, roleChangedNotice, type Notice } from './notifications'
 
 export interface UserView {
   id: number
@@ -41,6 +42,7 @@ export function parseUserId(raw: string): number {
 export async function changeRole(context: AppContext, actor: User, userId: number, body: unknown): Promise<UserView> {
   const { role } = parseBody(roleBody, body)
   const { User } = context.db.models
+  const notices: Notice[] = []
   const user = await context.db.write(async (transaction) => {
     const target = await User.findByPk(userId, { transaction })
     if (!target) throw notFound('user')
@@ -53,7 +55,10 @@ export async function changeRole(context: AppContext, actor: User, userId: numbe
       actorId: actor.id, action: 'user.role_changed', subjectType: 'user', subjectId: target.id,
       details: { email: target.email, from, to: role },
     })
+    notices.push(roleChangedNotice(target, from, role))
     return target
   })
+  // after the commit: the e-mail tells of a change that has happened
+  await notify(context, notices)
   return toUserView(user)
 }

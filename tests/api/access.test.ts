@@ -2,6 +2,8 @@
  * Who may call what: for every API route, the status each role must get. A route added
  * to the app without a row here fails the walk at the bottom.
  */
+import { mkdirSync, writeFileSync } from 'node:fs'
+import { join as joinPath } from 'node:path'
 import type { Express } from 'express'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -21,6 +23,8 @@ interface Row {
   body?: () => unknown
   /** A token used only for this request (sign-out revokes it). */
   freshToken?: boolean
+  /** A multipart body instead of JSON: text fields and files (field → [bytes, file name]). */
+  multipart?: () => { fields: Record<string, string>; files: Record<string, [Buffer, string]> }
   expected: Record<Caller, number>
 }
 
@@ -32,6 +36,13 @@ const tokens = {} as Record<Role, string>
 const fixture = { targetUserId: 0, draftEntryId: 0, releasedEntryId: 0, adminSearchId: '' }
 const SEARCH_WINDOW = { kind: 'spring', stiffness: { min: 0.1, max: 1 }, limit: 3 }
 let accounts = 0
+// curation: one record per state-changing route, so each row starts from the state it needs
+const curation = {
+  submitDraftId: 0, editDraftId: 0, releaseId: 0, rejectId: 0, requestChangesId: 0, retireId: 0,
+  shelfEntryId: 0, shelfRevisionId: 0, acceptReportId: 0, rejectReportId: 0, acceptedReportId: 0,
+}
+const GOOD_CSV = Buffer.from('displacement,force\n0,0\n0.5,0.8\n1,1.5\n1.5,2.1\n2,2.6\n2.5,2.9\n')
+const PNG_BYTES = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d])
 
 const SIGNIN_ACCOUNT = { email: 'table.signin@example.test', password: 'table password 1', displayName: 'Sela Marr' }
 
@@ -71,6 +82,53 @@ const ROWS: Row[] = [
     expected: statuses(401, 404, 200, 200, 200),
   },
   { route: 'GET /api/audit', path: () => '/api/audit', expected: statuses(401, 403, 403, 403, 200) },
+  // curation (docs/api.md, "Curation"): a refused caller changes nothing, so the first
+  // allowed caller moves the record on and higher roles meet its new status (409)
+  {
+    route: 'POST /api/entries', path: () => '/api/entries', body: () => ({ family: 'leaf-hinge', name: 'Access table proposal' }),
+    expected: statuses(401, 403, 201, 201, 201),
+  },
+  {
+    route: 'PATCH /api/entries/:id', case: 'the contributor\u2019s draft (owner only)', path: () => `/api/entries/${curation.editDraftId}`, body: () => ({ summary: 'edited' }),
+    expected: statuses(401, 403, 200, 403, 403),
+  },
+  {
+    route: 'POST /api/entries/:id/proposals', path: () => `/api/entries/${curation.shelfEntryId}/proposals`, body: () => ({ notes: 'a change' }),
+    expected: statuses(401, 403, 201, 201, 201),
+  },
+  {
+    route: 'POST /api/entries/:id/comments', path: () => `/api/entries/${curation.shelfEntryId}/comments`, body: () => ({ text: 'looks right' }),
+    expected: statuses(401, 403, 201, 201, 201),
+  },
+  { route: 'POST /api/entries/:id/submit', case: 'owner only', path: () => `/api/entries/${curation.submitDraftId}/submit`, expected: statuses(401, 403, 200, 403, 403) },
+  { route: 'POST /api/entries/:id/release', path: () => `/api/entries/${curation.releaseId}/release`, expected: statuses(401, 403, 403, 200, 409) },
+  { route: 'POST /api/entries/:id/reject', path: () => `/api/entries/${curation.rejectId}/reject`, body: () => ({ reason: 'duplicate' }), expected: statuses(401, 403, 403, 200, 409) },
+  {
+    route: 'POST /api/entries/:id/request-changes', path: () => `/api/entries/${curation.requestChangesId}/request-changes`, body: () => ({ comment: 'narrow the span' }),
+    expected: statuses(401, 403, 403, 200, 409),
+  },
+  { route: 'POST /api/entries/:id/retire', path: () => `/api/entries/${curation.retireId}/retire`, expected: statuses(401, 403, 403, 200, 409) },
+  { route: 'GET /api/entries/:id/diff', path: () => `/api/entries/${curation.shelfEntryId}/diff`, expected: statuses(401, 200, 200, 200, 200) },
+  {
+    route: 'GET /api/entries/:id/revisions/compare', path: () => `/api/entries/${curation.shelfEntryId}/revisions/compare?a=${curation.shelfRevisionId}&b=${curation.shelfRevisionId}`,
+    expected: statuses(401, 200, 200, 200, 200),
+  },
+  { route: 'GET /api/review-queue', path: () => '/api/review-queue', expected: statuses(401, 403, 403, 200, 200) },
+  {
+    route: 'POST /api/entries/:id/reports', path: () => `/api/entries/${curation.shelfEntryId}/reports`,
+    multipart: () => ({ fields: { printer: 'Bench printer 1', material: 'PETG' }, files: { file: [GOOD_CSV, 'run.csv'] } }),
+    expected: statuses(401, 403, 201, 201, 201),
+  },
+  { route: 'GET /api/entries/:id/calibration', path: () => `/api/entries/${curation.shelfEntryId}/calibration`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'POST /api/reports/:id/accept', path: () => `/api/reports/${curation.acceptReportId}/accept`, expected: statuses(401, 403, 403, 200, 409) },
+  { route: 'POST /api/reports/:id/reject', path: () => `/api/reports/${curation.rejectReportId}/reject`, body: () => ({ note: 'wrong fixture' }), expected: statuses(401, 403, 403, 200, 409) },
+  {
+    route: 'POST /api/reports/:id/adopt-modulus', case: 'the second adoption of one report is a duplicate',
+    path: () => `/api/reports/${curation.acceptedReportId}/adopt-modulus`, expected: statuses(401, 403, 403, 201, 409),
+  },
+  { route: 'GET /api/reports/:id/file', path: () => `/api/reports/${curation.acceptedReportId}/file`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/reports/:id/photo', path: () => `/api/reports/${curation.acceptedReportId}/photo`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/outbox', path: () => '/api/outbox', expected: statuses(401, 403, 403, 403, 200) },
   // search: any signed-in user; a search job is its owner's alone (others get 404)
   { route: 'GET /api/shelf', path: () => '/api/shelf', expected: statuses(401, 200, 200, 200, 200) },
   { route: 'POST /api/search', path: () => '/api/search', body: () => SEARCH_WINDOW, expected: statuses(401, 200, 200, 200, 200) },
@@ -91,10 +149,42 @@ beforeAll(async () => {
     Entry.create({ familyId: 'bistable-beam', name, summary: '', tags: [], status, defaultParams: {}, ranges: {}, materials: [], ownerId, currentRevisionId: null })
   fixture.draftEntryId = (await entry('Access table draft', 'draft', contributor.id)).id
   fixture.releasedEntryId = (await entry('Access table release', 'released', librarian.id)).id
+  await curationFixtures(contributor.id, librarian.id)
   for (const role of ROLES) tokens[role] = await signInAs(t.app, role)
   fixture.adminSearchId = (await request(t.app).post('/api/searches').set(bearer(tokens.admin)).send(SEARCH_WINDOW).expect(202)).body.id
 })
 afterAll(() => t.close())
+
+async function curationFixtures(contributorId: number, librarianId: number) {
+  const { Entry, EntryRevision, TestReport } = t.context.db.models
+  const entry = async (name: string, status: 'draft' | 'in_review' | 'released', ownerId: number) =>
+    (await Entry.create({ familyId: 'bistable-beam', name, summary: '', tags: [], status, defaultParams: {}, ranges: {}, materials: [], ownerId, currentRevisionId: null })).id
+  curation.submitDraftId = await entry('Access table draft to submit', 'draft', contributorId)
+  curation.editDraftId = await entry('Access table draft to edit', 'draft', contributorId)
+  curation.releaseId = await entry('Access table to release', 'in_review', contributorId)
+  curation.rejectId = await entry('Access table to reject', 'in_review', contributorId)
+  curation.requestChangesId = await entry('Access table to send back', 'in_review', contributorId)
+  curation.retireId = await entry('Access table to retire', 'released', librarianId)
+
+  // a seeded released bistable entry with its first revision carries the report rows
+  const shelf = (await Entry.findOne({ where: { familyId: 'bistable-beam', status: 'released' }, order: [['id', 'ASC']] }))!
+  const revision = (await EntryRevision.findByPk(shelf.currentRevisionId!))!
+  curation.shelfEntryId = shelf.id
+  curation.shelfRevisionId = revision.id
+  const measured = { displacement: revision.curve.displacement.slice(0, 30), force: revision.curve.force.slice(0, 30).map((f) => 0.9 * f) }
+  const report = async (status: 'submitted' | 'accepted', filePath: string, photoPath: string | null) => (await TestReport.create({
+    entryId: shelf.id, revisionId: revision.id, uploaderId: contributorId, reviewerId: null, filePath, originalName: 'stand.csv', photoPath,
+    printer: 'Bench printer 1', material: 'PETG', lot: 'L-1', orientation: 'flat', testSpeed: 10, notes: '', status, measuredCurve: measured,
+  })).id
+  curation.acceptReportId = await report('submitted', 'reports/access-a.csv', null)
+  curation.rejectReportId = await report('submitted', 'reports/access-b.csv', null)
+  curation.acceptedReportId = await report('accepted', 'reports/access-c.csv', 'photos/access-c.png')
+  const uploads = t.context.config.uploadsDir
+  mkdirSync(joinPath(uploads, 'reports'), { recursive: true })
+  mkdirSync(joinPath(uploads, 'photos'), { recursive: true })
+  writeFileSync(joinPath(uploads, 'reports/access-c.csv'), GOOD_CSV)
+  writeFileSync(joinPath(uploads, 'photos/access-c.png'), PNG_BYTES)
+}
 
 async function call(row: Row, caller: Caller) {
   const [method] = row.route.split(' ')
@@ -102,6 +192,12 @@ async function call(row: Row, caller: Caller) {
   if (caller !== 'anonymous') {
     const token = row.freshToken ? await signIn(t.app, demoEmail(caller)) : tokens[caller]
     req = req.set(bearer(token))
+  }
+  if (row.multipart) {
+    const { fields, files } = row.multipart()
+    for (const [name, value] of Object.entries(fields)) req = req.field(name, value)
+    for (const [name, [bytes, filename]] of Object.entries(files)) req = req.attach(name, bytes, filename)
+    return req
   }
   return row.body ? req.send(row.body() as object) : req
 }

@@ -26,12 +26,14 @@ async function pragma(sequelize: Sequelize, name: string, transaction?: Transact
 const EXPECTED_TABLES: Record<string, string[]> = {
   Users: ['id', 'email', 'passwordHash', 'displayName', 'role', 'tokenVersion', 'createdAt', 'updatedAt'],
   Materials: ['id', 'name', 'process', 'modulus', 'strainLimit', 'density', 'notes', 'source', 'createdAt', 'updatedAt'],
-  Entries: ['id', 'familyId', 'name', 'summary', 'tags', 'status', 'defaultParams', 'ranges', 'materials', 'notes', 'ownerId', 'currentRevisionId', 'createdAt', 'updatedAt'],
+  Entries: ['id', 'familyId', 'name', 'summary', 'tags', 'status', 'defaultParams', 'ranges', 'materials', 'notes', 'ownerId', 'currentRevisionId', 'proposalForId', 'createdAt', 'updatedAt'],
   EntryRevisions: ['id', 'entryId', 'number', 'params', 'ranges', 'method', 'curve', 'metrics', 'warnings', 'createdById', 'createdAt'],
-  TestReports: ['id', 'entryId', 'revisionId', 'uploaderId', 'reviewerId', 'filePath', 'originalName', 'photoPath', 'printer', 'material', 'lot', 'orientation', 'testSpeed', 'notes', 'status', 'measuredCurve', 'createdAt', 'updatedAt'],
+  TestReports: ['id', 'entryId', 'revisionId', 'uploaderId', 'reviewerId', 'filePath', 'originalName', 'photoPath', 'printer', 'material', 'lot', 'orientation', 'testSpeed', 'notes', 'reviewNote', 'reviewedAt', 'status', 'measuredCurve', 'createdAt', 'updatedAt'],
   SavedConfigurations: ['id', 'ownerId', 'entryId', 'revisionId', 'name', 'params', 'window', 'shareToken', 'createdAt', 'updatedAt'],
   AuditEvents: ['id', 'actorId', 'action', 'subjectType', 'subjectId', 'details', 'at'],
   RevokedTokens: ['jti', 'expiresAt'],
+  EntryComments: ['id', 'entryId', 'authorId', 'kind', 'text', 'createdAt'],
+  OutboxMessages: ['id', 'to', 'subject', 'text', 'transport', 'status', 'error', 'at'],
   SequelizeMeta: ['name'],
 }
 
@@ -46,7 +48,7 @@ describe('migrations', () => {
     afterAll(() => sequelize.close())
 
     it('applies every migration in order', () => {
-      expect(applied).toEqual(['0001-initial'])
+      expect(applied).toEqual(['0001-initial', '0002-curation'])
     })
 
     it('produces exactly the expected tables and columns', async () => {
@@ -67,7 +69,7 @@ describe('migrations', () => {
       }
       expect(uniqueColumns).toContain('email')
       const keys = await sequelize.query<{ table: string; from: string }>('PRAGMA foreign_key_list("Entries")', { type: QueryTypes.SELECT })
-      expect(keys.map((k) => `${k.from}->${k.table}`).sort()).toEqual(['currentRevisionId->EntryRevisions', 'ownerId->Users'])
+      expect(keys.map((k) => `${k.from}->${k.table}`).sort()).toEqual(['currentRevisionId->EntryRevisions', 'ownerId->Users', 'proposalForId->Entries'])
     })
 
     it('applies nothing the second time', async () => {

@@ -6,7 +6,12 @@ import type { EntryRevision } from './entry-revision'
 import type { TestReport } from './test-report'
 import type { User } from './user'
 
-export const ENTRY_STATUSES = ['draft', 'in_review', 'released', 'retired'] as const
+/**
+ * draft → in_review → released → retired; a review may send it back to draft or reject it.
+ * A change proposal (proposalForId set) that is released becomes the next revision of the
+ * entry it proposes for and is itself marked merged.
+ */
+export const ENTRY_STATUSES = ['draft', 'in_review', 'released', 'retired', 'rejected', 'merged'] as const
 export type EntryStatus = (typeof ENTRY_STATUSES)[number]
 
 export type ParamValues = Record<string, number | string>
@@ -27,11 +32,14 @@ export class Entry extends Model<InferAttributes<Entry>, InferCreationAttributes
   declare notes: CreationOptional<string>
   declare ownerId: ForeignKey<User['id']>
   declare currentRevisionId: ForeignKey<EntryRevision['id']> | null
+  /** Set on a change proposal: the released entry it would revise. */
+  declare proposalForId: CreationOptional<ForeignKey<Entry['id']> | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
   declare owner?: NonAttribute<User>
   declare currentRevision?: NonAttribute<EntryRevision | null>
+  declare proposalFor?: NonAttribute<Entry | null>
   declare revisions?: NonAttribute<EntryRevision[]>
   declare reports?: NonAttribute<TestReport[]>
 

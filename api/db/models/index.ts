@@ -1,14 +1,19 @@
 import type { Sequelize } from 'sequelize'
 import { AuditEvent } from './audit-event'
 import { Entry } from './entry'
+import { EntryComment } from './entry-comment'
 import { EntryRevision } from './entry-revision'
 import { Material } from './material'
+import { OutboxMessage } from './outbox-message'
 import { RevokedToken } from './revoked-token'
 import { SavedConfiguration } from './saved-configuration'
 import { TestReport } from './test-report'
 import { User } from './user'
 
 export { AuditEvent, Entry, EntryRevision, Material, RevokedToken, SavedConfiguration, TestReport, User }
+export { EntryComment, OutboxMessage }
+export { COMMENT_KINDS, type CommentKind } from './entry-comment'
+export { OUTBOX_STATUSES, type OutboxStatus } from './outbox-message'
 export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './entry'
 export { ImmutableRevisionError } from './entry-revision'
 export { REPORT_STATUSES, type ReportStatus } from './test-report'
@@ -27,6 +32,8 @@ export function defineModels(sequelize: Sequelize) {
     SavedConfiguration: class extends SavedConfiguration {},
     AuditEvent: class extends AuditEvent {},
     RevokedToken: class extends RevokedToken {},
+    EntryComment: class extends EntryComment {},
+    OutboxMessage: class extends OutboxMessage {},
   }
   for (const model of Object.values(models)) model.initModel(sequelize)
   const m = models
@@ -45,6 +52,9 @@ export function defineModels(sequelize: Sequelize) {
   m.SavedConfiguration.belongsTo(m.Entry, { as: 'entry', foreignKey: 'entryId' })
   m.SavedConfiguration.belongsTo(m.EntryRevision, { as: 'revision', foreignKey: 'revisionId' })
   m.AuditEvent.belongsTo(m.User, { as: 'actor', foreignKey: 'actorId' })
+  m.Entry.belongsTo(m.Entry, { as: 'proposalFor', foreignKey: 'proposalForId' })
+  m.Entry.hasMany(m.EntryComment, { as: 'comments', foreignKey: 'entryId' })
+  m.EntryComment.belongsTo(m.User, { as: 'author', foreignKey: 'authorId' })
   return models
 }
 

@@ -32,6 +32,9 @@ export class TestReport extends Model<InferAttributes<TestReport>, InferCreation
   /** Test speed in mm/min. */
   declare testSpeed: number | null
   declare notes: CreationOptional<string>
+  /** The librarian's note with the accept or reject decision. */
+  declare reviewNote: CreationOptional<string>
+  declare reviewedAt: CreationOptional<Date | null>
   declare status: CreationOptional<ReportStatus>
   declare measuredCurve: MeasuredCurve
   declare createdAt: CreationOptional<Date>
@@ -53,6 +56,8 @@ export class TestReport extends Model<InferAttributes<TestReport>, InferCreation
         orientation: { type: DataTypes.STRING(120), allowNull: false, defaultValue: '' },
         testSpeed: { type: DataTypes.FLOAT, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        reviewNote: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        reviewedAt: { type: DataTypes.DATE, allowNull: true },
         status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'submitted', validate: { isIn: [REPORT_STATUSES as unknown as string[]] } },
         measuredCurve: { type: DataTypes.JSON, allowNull: false },
         createdAt: DataTypes.DATE,

@@ -1,0 +1,201 @@
+/**
+ * Reading a test stand's CSV into a measured curve: content checks (text, not a renamed
+ * binary), delimiter and header detection, column mapping, unit conversion to the
+ * entry's axes, and the checks a loading stroke must pass. Every problem names the row and
+ * column it was found in (rows and columns counted from 1, as a spreadsheet shows them).
+ */
+import Papa from 'papaparse'
+import type { MeasuredCurve } from '../db/models/test-report'
+
+/**
+ * Exact conversion factors to mm and N, NIST Special Publication 811 (2008), Appendix B.8:
+ * inch → metre 2.54 E−02 (exact); gram-force → newton 9.806 65 E−03 (exact, standard
+ * gravity); pound-force → newton 4.448 222 E+00, here to the exact value
+ * 0.453 592 37 kg × 9.806 65 m/s² = 4.448 221 615 260 5 N.
+ */
+export const LENGTH_TO_MM = { mm: 1, in: 25.4 } as const
+export const FORCE_TO_N = { N: 1, gf: 0.00980665, lbf: 4.4482216152605 } as const
+/** Hinge families plot rotation (deg) against moment (N·mm); those files are read as they are. */
+export const ROTATION_UNITS = ['deg'] as const
+export const MOMENT_UNITS = ['N·mm'] as const
+
+export const DISPLACEMENT_UNITS = ['mm', 'in', 'deg'] as const
+export const FORCE_UNITS = ['N', 'gf', 'lbf', 'N·mm'] as const
+export type DisplacementUnit = (typeof DISPLACEMENT_UNITS)[number]
+export type ForceUnit = (typeof FORCE_UNITS)[number]
+
+export const MIN_POINTS = 5
+
+export interface CsvProblem {
+  field: string
+  message: string
+  row: number | null
+  column: number | null
+}
+
+export class CsvError extends Error {
+  readonly problem: CsvProblem
+  constructor(problem: CsvProblem) {
+    super(problem.message)
+    this.name = 'CsvError'
+    this.problem = problem
+  }
+}
+
+export interface CsvOptions {
+  displacementColumn?: string
+  forceColumn?: string
+  displacementUnit: DisplacementUnit
+  forceUnit: ForceUnit
+  hasHeader: 'auto' | 'yes' | 'no'
+}
+
+export interface ParsedCsv {
+  curve: MeasuredCurve
+  header: string[] | null
+  delimiter: string
+  columns: { displacement: { index: number; name: string | null }; force: { index: number; name: string | null } }
+}
+
+const fail = (message: string, row: number | null = null, column: number | null = null): never => {
+  throw new CsvError({ field: 'file', message, row, column })
+}
+
+/** Files people pick by mistake, recognised by their first bytes. */
+const BINARY_SIGNATURES: Array<{ bytes: number[]; kind: string }> = [
+  { bytes: [0x89, 0x50, 0x4e, 0x47], kind: 'a PNG image' },
+  { bytes: [0xff, 0xd8, 0xff], kind: 'a JPEG image' },
+  { bytes: [0x47, 0x49, 0x46, 0x38], kind: 'a GIF image' },
+  { bytes: [0x25, 0x50, 0x44, 0x46], kind: 'a PDF document' },
+  { bytes: [0x50, 0x4b, 0x03, 0x04], kind: 'a ZIP archive (an .xlsx workbook is one; export it as CSV)' },
+  { bytes: [0xd0, 0xcf, 0x11, 0xe0], kind: 'an Office document (export it as CSV)' },
+]
+
+/** The file as text, or a clear refusal when its content is not text. */
+export function decodeText(buffer: Buffer): string {
+  if (buffer.length === 0) fail('the file is empty')
+  for (const sig of BINARY_SIGNATURES) {
+    if (sig.bytes.every((b, i) => buffer[i] === b)) fail(`the file is ${sig.kind}, not a CSV text file`)
+  }
+  let text: string
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(buffer)
+  } catch {
+    // older stand software writes Windows-1252 ("°", "µ" in headers); Latin-1 reads every byte
+    text = buffer.toString('latin1')
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1)
+  const control = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.exec(text)
+  if (control) {
+    const row = text.slice(0, control.index).split('\n').length
+    fail(`the file is not a CSV text file: it holds binary data (first at row ${row})`, row)
+  }
+  if (text.trim() === '') fail('the file is empty (no rows)')
+  return text
+}
+
+/** Semicolons (with decimal commas), tabs or commas: the first that splits every one of the first lines alike. */
+export function detectDelimiter(lines: string[]): string {
+  const sample = lines.filter((l) => l.trim() !== '').slice(0, 20)
+  for (const d of [';', '\t', ',', '|']) {
+    const counts = sample.map((l) => l.split(d).length - 1)
+    if (counts.length && counts[0] > 0 && counts.every((c) => c === counts[0])) return d
+  }
+  for (const d of [';', '\t', ',', '|']) if (sample.every((l) => l.includes(d))) return d
+  return ','
+}
+
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/
+
+function parseNumber(cell: string, decimalComma: boolean): number | null {
+  let text = cell.trim()
+  if (decimalComma && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(text)) text = text.replace(',', '.')
+  if (!NUMBER.test(text)) return null
+  const n = Number(text)
+  return Number.isFinite(n) ? n : null
+}
+
+function resolveColumn(given: string | undefined, fallback: number, header: string[] | null, which: string, guess: RegExp): number {
+  const field = `${which}Column`
+  if (given === undefined || given.trim() === '') {
+    if (header) {
+      const found = header.findIndex((h) => guess.test(h))
+      if (found >= 0) return found
+    }
+    return fallback
+  }
+  const text = given.trim()
+  if (/^\d+$/.test(text)) {
+    const index = Number(text) - 1
+    if (index < 0) throw new CsvError({ field, message: `${field}: columns are counted from 1`, row: null, column: null })
+    return index
+  }
+  if (!header) throw new CsvError({ field, message: `${field} names the column "${text}", but the file has no header row; give the column number instead`, row: null, column: null })
+  const index = header.findIndex((h) => h.trim().toLowerCase() === text.toLowerCase())
+  if (index < 0) throw new CsvError({ field, message: `${field}: no column is headed "${text}" (the header has ${header.map((h) => `"${h.trim()}"`).join(', ')})`, row: 1, column: null })
+  return index
+}
+
+/** Parses and checks a loading stroke; answers the curve in mm and N (or deg and N·mm). */
+export function parseMeasuredCurve(buffer: Buffer, options: CsvOptions): ParsedCsv {
+  const text = decodeText(buffer)
+  const lines = text.split(/\r\n|\n|\r/)
+  const delimiter = detectDelimiter(lines)
+  const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false, header: false })
+  // rows keep their line number, so a message can point at the row the user sees
+  const rows = parsed.data.map((cells, i) => ({ line: i + 1, cells })).filter((r) => r.cells.some((c) => c.trim() !== ''))
+  if (rows.length === 0) fail('the file is empty (no rows)')
+
+  const decimalComma = delimiter !== ','
+  const first = rows[0]
+  const looksLikeHeader = first.cells.slice(0, Math.max(2, first.cells.length)).some((c) => c.trim() !== '' && parseNumber(c, decimalComma) === null)
+  const hasHeader = options.hasHeader === 'yes' || (options.hasHeader === 'auto' && looksLikeHeader)
+  const header = hasHeader ? first.cells.map((c) => c.trim()) : null
+  const data = hasHeader ? rows.slice(1) : rows
+
+  const dIndex = resolveColumn(options.displacementColumn, 0, header, 'displacement', /displacement|extension|travel|position|stroke|deflection|rotation|angle/i)
+  const fIndex = resolveColumn(options.forceColumn, 1, header, 'force', /force|load|moment|torque/i)
+  if (dIndex === fIndex) throw new CsvError({ field: 'forceColumn', message: `the displacement and force columns are the same column (${dIndex + 1})`, row: null, column: dIndex + 1 })
+  const widest = Math.max(...rows.map((r) => r.cells.length))
+  for (const [index, which] of [[dIndex, 'displacement'], [fIndex, 'force']] as const) {
+    if (index >= widest) throw new CsvError({ field: `${which}Column`, message: `${which}Column: the file has ${widest} column(s), so there is no column ${index + 1}`, row: null, column: index + 1 })
+  }
+  const label = (index: number) => `column ${index + 1}${header?.[index] ? ` (${header[index]})` : ''}`
+
+  for (const index of [dIndex, fIndex]) {
+    if (data.length > 0 && data.every((r) => (r.cells[index] ?? '').trim() === '')) {
+      fail(`${label(index)} is empty: no values in any row`, data[0].line, index + 1)
+    }
+  }
+  const displacement: number[] = []
+  const force: number[] = []
+  const lengthFactor = options.displacementUnit === 'in' ? LENGTH_TO_MM.in : 1
+  const forceFactor = options.forceUnit === 'gf' ? FORCE_TO_N.gf : options.forceUnit === 'lbf' ? FORCE_TO_N.lbf : 1
+  let previous = 0
+  for (const row of data) {
+    const values: number[] = []
+    for (const index of [dIndex, fIndex]) {
+      const cell = row.cells[index] ?? ''
+      if (cell.trim() === '') fail(`row ${row.line}, ${label(index)} is empty`, row.line, index + 1)
+      const value = parseNumber(cell, decimalComma)
+      if (value === null) fail(`row ${row.line}, ${label(index)}: "${cell.trim().slice(0, 40)}" is not a number`, row.line, index + 1)
+      values.push(value!)
+    }
+    const d = values[0] * lengthFactor
+    if (displacement.length && d < displacement[displacement.length - 1]) {
+      fail(`row ${row.line}, ${label(dIndex)}: the displacement falls from ${previous} to ${values[0]}; a loading stroke must not go back (put the unloading stroke in a file of its own)`, row.line, dIndex + 1)
+    }
+    previous = values[0]
+    displacement.push(d)
+    force.push(values[1] * forceFactor)
+  }
+  if (displacement.length < MIN_POINTS) {
+    fail(`the file has ${displacement.length} data row(s); a measured curve needs at least ${MIN_POINTS}`, data.length ? data[data.length - 1].line : first.line, null)
+  }
+  return {
+    curve: { displacement, force },
+    header,
+    delimiter,
+    columns: { displacement: { index: dIndex + 1, name: header?.[dIndex] ?? null }, force: { index: fIndex + 1, name: header?.[fIndex] ?? null } },
+  }
+}

@@ -1,0 +1,316 @@
+/**
+ * Test reports: upload (CSV plus an optional photo), review, downloads, calibration figures
+ * and adopting a fitted modulus as a calibrated material (docs/api.md, "Test reports").
+ *
+ * Nothing of a refused upload is kept: files arrive in memory (multer memory storage) and
+ * are written only inside the write transaction that creates the report; if that
+ * transaction fails, the files written so far are removed.
+ */
+import { randomBytes } from 'node:crypto'
+import { mkdir, readFile, unlink, writeFile } from 'node:fs/promises'
+import { join, resolve, sep } from 'node:path'
+import { Op } from 'sequelize'
+import { z } from 'zod'
+import { calibrationSummary, families } from '../../catalog'
+import type { AppContext } from '../context'
+import type { Entry, TestReport, User } from '../db'
+import { conflict, HttpError, notFound, validationFailed } from '../errors'
+import { bodySchema, parseBody } from '../validation'
+import { recordAudit } from './audit'
+import { reportsVisibleTo, showEntry, visibleTo } from './entries'
+import { listMaterials } from './materials'
+import { librarianAddresses, notify, type Notice } from './notifications'
+import { compareReport, predictedMaterialOf } from './report-comparison'
+import { CsvError, DISPLACEMENT_UNITS, FORCE_UNITS, MOMENT_UNITS, parseMeasuredCurve, ROTATION_UNITS } from './report-csv'
+
+export interface UploadedFile {
+  originalname: string
+  size: number
+  buffer: Buffer
+}
+
+const optionalText = (field: string, max: number) =>
+  z.string({ error: `${field} must be text` }).trim().max(max, `${field} must be at most ${max} characters`).optional()
+
+const requiredText = (field: string, max: number) =>
+  z.string({ error: (iss) => (iss.input === undefined ? `${field} is required` : `${field} must be text`) }).trim()
+    .min(1, `${field} must not be empty`).max(max, `${field} must be at most ${max} characters`)
+
+const reportFields = bodySchema({
+  revisionId: z.string({ error: 'revisionId must be a revision id' }).regex(/^\d{1,15}$/, 'revisionId must be a revision id (a whole number)').optional(),
+  printer: requiredText('printer', 120),
+  material: requiredText('material', 120),
+  lot: optionalText('lot', 120),
+  orientation: optionalText('orientation', 120),
+  testSpeed: z.string({ error: 'testSpeed must be a number of mm/min' }).trim()
+    .refine((v) => v === '' || (/^\d*\.?\d+([eE][+-]?\d+)?$/.test(v) && Number(v) > 0 && Number(v) <= 10000), 'testSpeed must be a positive number of mm/min, at most 10000')
+    .optional(),
+  notes: optionalText('notes', 5000),
+  displacementColumn: optionalText('displacementColumn', 120),
+  forceColumn: optionalText('forceColumn', 120),
+  displacementUnit: z.enum(DISPLACEMENT_UNITS, { error: `displacementUnit must be one of ${DISPLACEMENT_UNITS.join(', ')}` }).optional(),
+  forceUnit: z.enum(FORCE_UNITS, { error: `forceUnit must be one of ${FORCE_UNITS.join(', ')}` }).optional(),
+  hasHeader: z.enum(['auto', 'yes', 'no'], { error: 'hasHeader must be auto, yes or no' }).optional(),
+})
+
+const PNG = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]
+const JPEG = [0xff, 0xd8, 0xff]
+
+/** The photo's type from its first bytes; the name and the browser's claim are not trusted. */
+export function photoTypeOf(buffer: Buffer): 'png' | 'jpeg' | null {
+  if (PNG.every((b, i) => buffer[i] === b)) return 'png'
+  if (JPEG.every((b, i) => buffer[i] === b)) return 'jpeg'
+  return null
+}
+
+const tooLarge = (field: string, limit: number) =>
+  new HttpError(413, 'payload_too_large', `${field} is larger than the limit of ${Math.round(limit / 1024 / 1024 * 10) / 10} MB`, { field, limit })
+
+/** Units the entry's curve is drawn in decide which units a file may use. */
+function checkUnits(entry: Entry, displacementUnit: string | undefined, forceUnit: string | undefined) {
+  const family = families.find((f) => f.id === entry.familyId)
+  const rotational = family?.axes.displacement.unit === 'deg'
+  const d = displacementUnit ?? (rotational ? 'deg' : 'mm')
+  const f = forceUnit ?? (rotational ? 'N·mm' : 'N')
+  const issues = []
+  if (rotational && !(ROTATION_UNITS as readonly string[]).includes(d)) issues.push({ field: 'displacementUnit', message: `displacementUnit: this entry's curve is rotation in deg; use deg` })
+  if (!rotational && !['mm', 'in'].includes(d)) issues.push({ field: 'displacementUnit', message: `displacementUnit: this entry's curve is displacement; use mm or in` })
+  if (rotational && !(MOMENT_UNITS as readonly string[]).includes(f)) issues.push({ field: 'forceUnit', message: `forceUnit: this entry's curve is moment in N·mm; use N·mm` })
+  if (!rotational && !['N', 'gf', 'lbf'].includes(f)) issues.push({ field: 'forceUnit', message: `forceUnit: this entry's curve is force; use N, gf or lbf` })
+  if (issues.length) throw validationFailed(issues)
+  return { displacementUnit: d as 'mm', forceUnit: f as 'N' }
+}
+
+function storedPath(context: AppContext, relativePath: string): string {
+  const root = resolve(context.config.uploadsDir)
+  const full = resolve(root, relativePath)
+  // stored paths are generated here, but a path is still never followed outside the uploads folder
+  if (!full.startsWith(root + sep)) throw notFound('file')
+  return full
+}
+
+const generatedName = (extension: string) => `${randomBytes(16).toString('hex')}.${extension}`
+
+async function loadVisibleEntry(context: AppContext, viewer: User, entryId: number): Promise<Entry> {
+  const entry = await context.db.models.Entry.findOne({ where: { [Op.and]: [{ id: entryId }, visibleTo(viewer)] } })
+  if (!entry) throw notFound('entry')
+  return entry
+}
+
+/** POST /api/entries/:id/reports */
+export async function createReport(context: AppContext, actor: User, entryId: number, body: unknown, files: { file?: UploadedFile; photo?: UploadedFile }) {
+  const entry = await loadVisibleEntry(context, actor, entryId)
+  const fields = parseBody(reportFields, body)
+  if (entry.status !== 'released') throw conflict(`this entry is ${entry.status.replace('_', ' ')}; test reports are for released entries`, { status: entry.status })
+  const { EntryRevision, TestReport } = context.db.models
+  const revisionId = fields.revisionId ? Number(fields.revisionId) : entry.currentRevisionId
+  const revision = revisionId ? await EntryRevision.findOne({ where: { id: revisionId, entryId: entry.id } }) : null
+  if (!revision) throw validationFailed([{ field: 'revisionId', message: fields.revisionId ? `revisionId: revision ${fields.revisionId} is not a revision of this entry` : 'revisionId: this entry has no revision yet' }])
+  const units = checkUnits(entry, fields.displacementUnit, fields.forceUnit)
+
+  const { file, photo } = files
+  if (!file) throw validationFailed([{ field: 'file', message: 'file is required: the CSV of displacement and force from the test stand' }])
+  const limits = context.config.uploadLimits
+  if (file.size > limits.csvBytes) throw tooLarge('file', limits.csvBytes)
+  if (photo && photo.size > limits.photoBytes) throw tooLarge('photo', limits.photoBytes)
+  const photoType = photo ? photoTypeOf(photo.buffer) : null
+  if (photo && !photoType) throw validationFailed([{ field: 'photo', message: 'photo must be a PNG or JPEG image (its content is neither)' }])
+
+  let parsed
+  try {
+    parsed = parseMeasuredCurve(file.buffer, { displacementColumn: fields.displacementColumn, forceColumn: fields.forceColumn, hasHeader: fields.hasHeader ?? 'auto', ...units })
+  } catch (err) {
+    if (!(err instanceof CsvError)) throw err
+    const { field, message, row, column } = err.problem
+    throw new HttpError(400, 'validation_failed', message, { issues: [{ field, message }], row, column })
+  }
+
+  const filePath = join('reports', generatedName('csv'))
+  const photoPath = photo ? join('photos', generatedName(photoType === 'png' ? 'png' : 'jpg')) : null
+  const written: string[] = []
+  let report: TestReport
+  try {
+    report = await context.db.write(async (transaction) => {
+      const created = await TestReport.create({
+        entryId: entry.id, revisionId: revision.id, uploaderId: actor.id, reviewerId: null,
+        filePath, originalName: cleanName(file.originalname), photoPath,
+        printer: fields.printer, material: fields.material, lot: fields.lot ?? '', orientation: fields.orientation ?? '',
+        testSpeed: fields.testSpeed ? Number(fields.testSpeed) : null, notes: fields.notes ?? '', status: 'submitted',
+        measuredCurve: parsed.curve,
+      }, { transaction })
+      await recordAudit(context, transaction, {
+        actorId: actor.id, action: 'report.submitted', subjectType: 'report', subjectId: created.id,
+        details: { from: null, to: 'submitted', entryId: entry.id, revisionId: revision.id, points: parsed.curve.displacement.length },
+      })
+      for (const [path, buffer] of [[filePath, file.buffer], ...(photo && photoPath ? [[photoPath, photo.buffer]] : [])] as Array<[string, Buffer]>) {
+        const full = storedPath(context, path)
+        await mkdir(resolve(full, '..'), { recursive: true })
+        await writeFile(full, buffer, { flag: 'wx', mode: 0o640 })
+        written.push(full)
+      }
+      return created
+    })
+  } catch (err) {
+    await Promise.all(written.map((p) => unlink(p).catch(() => undefined)))
+    throw err
+  }
+  await notify(context, [{
+    to: await librarianAddresses(context),
+    subject: `Flexshelf: a test report on "${entry.name}" waits for review`,
+    text: `${actor.displayName} uploaded test report ${report.id} for "${entry.name}" (entry ${entry.id}, revision ${revision.number}): ${parsed.curve.displacement.length} points, printer ${fields.printer}, material ${fields.material}.`,
+  }])
+  return reportView(context, actor, report.id)
+}
+
+/** The client's file name is kept only as a label: no folders, no control characters. */
+function cleanName(name: string): string {
+  const base = (name ?? '').split(/[\\/]/).pop() ?? ''
+  const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').replace(/^\.+/, '').trim().slice(0, 200)
+  return clean || 'report.csv'
+}
+
+/** One report as the entry page shows it (with its comparison), for a viewer who may see it. */
+export async function reportView(context: AppContext, viewer: User, reportId: number) {
+  const report = await loadVisibleReport(context, viewer, reportId)
+  const detail = await showEntry(context, viewer, report.entryId)
+  const view = detail.reports.find((r) => r.id === report.id)
+  if (!view) throw notFound('test report')
+  return { ...view, entry: { id: detail.id, name: detail.name, familyId: detail.familyId } }
+}
+
+async function loadVisibleReport(context: AppContext, viewer: User, reportId: number): Promise<TestReport> {
+  const { Entry, TestReport } = context.db.models
+  const report = await TestReport.findOne({ where: { [Op.and]: [{ id: reportId }, reportsVisibleTo(viewer)] } })
+  if (!report) throw notFound('test report')
+  const entry = await Entry.findOne({ where: { [Op.and]: [{ id: report.entryId }, visibleTo(viewer)] }, attributes: ['id'] })
+  if (!entry) throw notFound('test report')
+  return report
+}
+
+export function parseReportId(raw: string): number {
+  const id = Number(raw)
+  if (!/^\d{1,15}$/.test(raw) || !Number.isSafeInteger(id)) throw notFound('test report')
+  return id
+}
+
+const reviewBody = bodySchema({ note: z.string({ error: 'note must be text' }).trim().max(5000, 'note must be at most 5000 characters').optional() })
+
+/** POST /api/reports/:id/accept and /reject */
+export async function reviewReport(context: AppContext, actor: User, reportId: number, decision: 'accepted' | 'rejected', body: unknown) {
+  const { note } = parseBody(reviewBody, body)
+  const { Entry, TestReport, User } = context.db.models
+  const notices: Notice[] = []
+  await context.db.write(async (transaction) => {
+    const report = await TestReport.findByPk(reportId, { transaction })
+    if (!report) throw notFound('test report')
+    if (report.status !== 'submitted') {
+      throw conflict(`this report is ${report.status}; only a submitted report can be ${decision}`, { status: report.status })
+    }
+    await report.update({ status: decision, reviewerId: actor.id, reviewNote: note ?? '', reviewedAt: new Date() }, { transaction })
+    await recordAudit(context, transaction, {
+      actorId: actor.id, action: decision === 'accepted' ? 'report.accepted' : 'report.rejected', subjectType: 'report', subjectId: report.id,
+      details: { from: 'submitted', to: decision, entryId: report.entryId, note: note ?? '' },
+    })
+    const uploader = await User.findByPk(report.uploaderId, { transaction })
+    const entry = await Entry.findByPk(report.entryId, { transaction, attributes: ['id', 'name'] })
+    if (uploader && uploader.id !== actor.id) {
+      notices.push({
+        to: [uploader.email],
+        subject: `Flexshelf: your test report on "${entry?.name}" was ${decision}`,
+        text: `Hello ${uploader.displayName},\n\n${actor.displayName} ${decision} your test report ${report.id} on "${entry?.name}".${note ? `\n\nNote:\n${note}` : ''}`,
+      })
+    }
+  })
+  await notify(context, notices)
+  return reportView(context, actor, reportId)
+}
+
+/** GET /api/reports/:id/file and /photo: the stored bytes with a fixed, safe type. */
+export async function reportDownload(context: AppContext, viewer: User, reportId: number, which: 'file' | 'photo') {
+  const report = await loadVisibleReport(context, viewer, reportId)
+  const path = which === 'file' ? report.filePath : report.photoPath
+  if (!path) throw notFound('photo of this test report')
+  const full = storedPath(context, path)
+  let body: Buffer
+  try {
+    body = await readFile(full)
+  } catch {
+    throw notFound(which === 'file' ? 'stored file of this test report' : 'stored photo of this test report')
+  }
+  if (which === 'file') return { body, contentType: 'text/csv; charset=utf-8', filename: `flexshelf-report-${report.id}.csv` }
+  const png = path.endsWith('.png')
+  return { body, contentType: png ? 'image/png' : 'image/jpeg', filename: `flexshelf-report-${report.id}-photo.${png ? 'png' : 'jpg'}` }
+}
+
+/** GET /api/entries/:id/calibration: fitted moduli of the accepted reports, per printer and material. */
+export async function entryCalibration(context: AppContext, viewer: User, entryId: number) {
+  const detail = await showEntry(context, viewer, entryId)
+  const accepted = detail.reports.filter((r) => r.status === 'accepted')
+  const fitted = accepted.filter((r) => r.comparison?.modulusFit)
+  const samples = fitted.map((r) => ({ reportId: r.id, printer: r.printer, material: r.material, modulus: r.comparison!.modulusFit!.modulus }))
+  return {
+    entryId: detail.id,
+    groups: calibrationSummary(samples),
+    reports: fitted.map((r) => ({
+      reportId: r.id, revisionId: r.revisionId, printer: r.printer, material: r.material, lot: r.lot,
+      modulus: r.comparison!.modulusFit!.modulus, predictedModulus: r.comparison!.modulusFit!.predictedModulus,
+      predictedMaterial: r.comparison!.predictedMaterial,
+    })),
+    unfitted: accepted.filter((r) => !r.comparison?.modulusFit).map((r) => ({ reportId: r.id, reason: r.comparison?.modulusFitProblem ?? r.comparisonProblem ?? 'no fit' })),
+  }
+}
+
+const adoptBody = bodySchema({
+  name: z.string({ error: 'name must be text' }).trim().min(1, 'name must not be empty').max(120, 'name must be at most 120 characters').optional(),
+})
+
+const sig = (v: number) => Number(v.toPrecision(4))
+
+/** POST /api/reports/:id/adopt-modulus: a calibrated material with the report's fitted modulus. */
+export async function adoptModulus(context: AppContext, actor: User, reportId: number, body: unknown) {
+  const { name } = parseBody(adoptBody, body)
+  const { Entry, EntryRevision, Material, TestReport } = context.db.models
+  const report = await TestReport.findByPk(reportId)
+  if (!report) throw notFound('test report')
+  if (report.status !== 'accepted') throw conflict(`this report is ${report.status}; only an accepted report's modulus can be adopted`, { status: report.status })
+  const entry = (await Entry.findByPk(report.entryId))!
+  const revision = report.revisionId ? await EntryRevision.findByPk(report.revisionId) : null
+  if (!revision) throw conflict('the revision this report tested is gone, so there is no prediction to calibrate against')
+  const materials = await listMaterials(context)
+  const { comparison, problem } = compareReport(entry.familyId, report, revision, materials)
+  if (!comparison?.modulusFit) throw conflict(`no effective modulus could be fitted to this report: ${comparison?.modulusFitProblem ?? problem}`)
+  const base = predictedMaterialOf(entry.familyId, revision, materials)
+  const baseMaterial = base?.id ? materials.find((m) => m.id === base.id) : undefined
+  if (!baseMaterial) throw conflict('the prediction used a custom modulus rather than a shelf material, so there is no material to calibrate')
+
+  const fit = comparison.modulusFit
+  const printer = report.printer || 'an unnamed printer'
+  const material = await context.db.write(async (transaction) => {
+    const created = await Material.create({
+      id: `${baseMaterial.id}-cal-r${report.id}`,
+      name: name ?? `${baseMaterial.name} — calibrated on ${printer}`,
+      process: baseMaterial.process,
+      modulus: sig(fit.modulus),
+      strainLimit: baseMaterial.strainLimit,
+      density: baseMaterial.density,
+      notes: `Calibrated for ${printer}; confirm on printed parts before relying on it, and recalibrate for a new printer, material lot or orientation.`,
+      source: `Effective modulus fitted to test report ${report.id} on "${entry.name}" (revision ${revision.number}; printer ${printer}, material ${report.material}${report.lot ? `, lot ${report.lot}` : ''}): `
+        + `least squares on the predicted curve's scaling, ${fit.pointsUsed} points, ${sig(fit.scale)} × ${baseMaterial.modulus} MPa of ${baseMaterial.name}. Strain limit and density from ${baseMaterial.name}.`,
+    }, { transaction })
+    await recordAudit(context, transaction, {
+      actorId: actor.id, action: 'material.calibrated', subjectType: 'material', subjectId: created.id,
+      details: { reportId: report.id, entryId: entry.id, modulus: created.modulus, baseMaterialId: baseMaterial.id },
+    })
+    return created
+  })
+  return { id: material.id, name: material.name, process: material.process, modulus: material.modulus, strainLimit: material.strainLimit, density: material.density, notes: material.notes, source: material.source }
+}
+
+/** The reports waiting for review, each with its comparison. */
+export async function reviewQueueReports(context: AppContext, viewer: User) {
+  const waiting = await context.db.models.TestReport.findAll({ where: { status: 'submitted' }, attributes: ['id'], order: [['createdAt', 'ASC'], ['id', 'ASC']] })
+  const out = []
+  for (const { id } of waiting) out.push(await reportView(context, viewer, id))
+  return out
+}
+
