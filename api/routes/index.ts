@@ -2,6 +2,8 @@ import type { Router } from 'express'
 import type { AppContext } from '../context'
 import { auditRouter } from './audit'
 import { authRouter } from './auth'
+import { configurationsRouter, sharedRouter } from './configurations'
+import { configureRouter } from './configure'
 import { curationRouter } from './curation'
 import { entriesRouter } from './entries'
 import { familiesRouter } from './families'
@@ -23,6 +25,9 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },
     { path: '/entries', router: entriesRouter(context) },
+    { path: '/entries', router: configureRouter(context) },
+    { path: '/configurations', router: configurationsRouter(context) },
+    { path: '/shared', router: sharedRouter(context) },
     { path: '/entries', router: curationRouter(context) },
     { path: '/entries', router: entryReportsRouter(context) },
     { path: '/reports', router: reportsRouter(context) },

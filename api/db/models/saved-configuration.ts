@@ -19,6 +19,12 @@ export class SavedConfiguration extends Model<InferAttributes<SavedConfiguration
   declare name: string
   declare params: ParamValues
   declare window: ForceWindow | null
+  /** Method id the configuration was checked with; null for the family's default. */
+  declare method: string | null
+  /** ± wall thickness (mm) and ± modulus fraction; null for the common-practice default. */
+  declare tolerance: { thickness: number; modulus: number } | null
+  /** Nozzle and layer height (mm); null for the common-practice default printer. */
+  declare printer: { nozzle?: number; layer?: number } | null
   declare shareToken: string | null
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
@@ -30,6 +36,9 @@ export class SavedConfiguration extends Model<InferAttributes<SavedConfiguration
         name: { type: DataTypes.STRING(120), allowNull: false },
         params: { type: DataTypes.JSON, allowNull: false },
         window: { type: DataTypes.JSON, allowNull: true },
+        method: { type: DataTypes.STRING(64), allowNull: true },
+        tolerance: { type: DataTypes.JSON, allowNull: true },
+        printer: { type: DataTypes.JSON, allowNull: true },
         shareToken: { type: DataTypes.STRING(64), allowNull: true, unique: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

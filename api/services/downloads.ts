@@ -1,0 +1,70 @@
+/**
+ * Files an engineer takes away: the printable STL of a configuration and its predicted
+ * curve as CSV. The same configuration always gives the same bytes.
+ */
+import Papa from 'papaparse'
+import { buildGeometry, serializeStl, validateParams } from '../../catalog'
+import type { ConfigurationInput } from './configuration-input'
+import { evaluateTarget, type ConfigureTarget } from './configure'
+import { downloadFileName } from './file-names'
+
+export interface DownloadFile {
+  fileName: string
+  contentType: string
+  body: Buffer | string
+  /** Said in the Flexshelf-Notice header (retired entry, moved-on revision). */
+  notices: string[]
+}
+
+/** Binary STL (serializeStl of buildGeometry) of the configured part, mm. */
+export function stlFile(target: ConfigureTarget, input: ConfigurationInput): DownloadFile {
+  const { family } = target
+  // the ranges and materials were checked when the input was resolved; this fills in defaults
+  const { params } = validateParams(family, input.params, { ranges: target.ranges, materials: target.materials })
+  const bytes = serializeStl(buildGeometry(family.id, params))
+  return {
+    fileName: downloadFileName(target.entry.name, family, params, 'stl'),
+    contentType: 'model/stl',
+    body: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+    notices: [...target.notices],
+  }
+}
+
+const significant = (v: number) => Number(v.toPrecision(6))
+
+function column(label: string, unit: string): string {
+  return unit ? `${label} (${unit})` : label
+}
+
+/**
+ * The predicted curve, one row per point: displacement and force named with their units
+ * from curve.axes, the strain when the method reports it, and the force at the tolerance
+ * band's low and high side when a tolerance is given. Text cells that a spreadsheet would
+ * run as a formula (= + - @ tab CR) get a leading apostrophe (papaparse escapeFormulae).
+ */
+export function curveCsvFile(target: ConfigureTarget, input: ConfigurationInput): DownloadFile {
+  const band = evaluateTarget(target, input)
+  const { curve } = band.nominal
+  const { displacement: dAxis, force: fAxis } = curve.axes
+  const fields = [column(dAxis.label, dAxis.unit), column(fAxis.label, fAxis.unit)]
+  if (curve.strain) fields.push(column('Strain', 'fraction'))
+  const withBand = input.tolerance !== null
+  if (withBand) {
+    const t = band.tolerance
+    const at = `±${t.thickness} mm walls, ±${significant(t.modulus * 100)} % modulus`
+    fields.push(column(`${fAxis.label}, tolerance low at ${at}`, fAxis.unit), column(`${fAxis.label}, tolerance high at ${at}`, fAxis.unit))
+  }
+  const rows = curve.displacement.map((d, i) => {
+    const row: number[] = [significant(d), significant(curve.force[i])]
+    if (curve.strain) row.push(significant(curve.strain[i]))
+    if (withBand) row.push(significant(band.curve.low[i]), significant(band.curve.high[i]))
+    return row
+  })
+  const csv = Papa.unparse({ fields, data: rows }, { escapeFormulae: true, newline: '\r\n' })
+  return {
+    fileName: downloadFileName(target.entry.name, target.family, band.nominal.params, 'csv', 'curve'),
+    contentType: 'text/csv; charset=utf-8',
+    body: `${csv}\r\n`,
+    notices: [...target.notices],
+  }
+}
