@@ -35,6 +35,9 @@ let t: TestApp
 const tokens = {} as Record<Role, string>
 const fixture = { targetUserId: 0, draftEntryId: 0, releasedEntryId: 0, adminSearchId: '' }
 const SEARCH_WINDOW = { kind: 'spring', stiffness: { min: 0.1, max: 1 }, limit: 3 }
+// configure: a released snap-hook entry (a fast model) and the admin's saved configurations of it
+const configure = { entryId: 0, ownId: 0, deleteId: 0, unshareId: 0, shareToken: '' }
+const CONFIGURE_QUERY = `params=${encodeURIComponent(JSON.stringify({ length: 12 }))}`
 let accounts = 0
 // curation: one record per state-changing route, so each row starts from the state it needs
 const curation = {
@@ -135,6 +138,30 @@ const ROWS: Row[] = [
   { route: 'POST /api/searches', path: () => '/api/searches', body: () => SEARCH_WINDOW, expected: statuses(401, 202, 202, 202, 202) },
   { route: 'GET /api/searches/:id/events', path: () => `/api/searches/${fixture.adminSearchId}/events`, expected: statuses(401, 404, 404, 404, 200) },
   { route: 'DELETE /api/searches/:id', path: () => `/api/searches/${fixture.adminSearchId}`, expected: statuses(401, 404, 404, 404, 204) },
+  // configure (docs/api.md, "Configure"): any signed-in user on a visible entry
+  { route: 'POST /api/entries/:id/check', path: () => `/api/entries/${configure.entryId}/check`, body: () => ({ params: { length: 12 } }), expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/entries/:id/stl', path: () => `/api/entries/${configure.entryId}/stl?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/entries/:id/curve.csv', path: () => `/api/entries/${configure.entryId}/curve.csv?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/entries/:id/datasheet', path: () => `/api/entries/${configure.entryId}/datasheet?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/entries/:id/datasheet.pdf', path: () => `/api/entries/${configure.entryId}/datasheet.pdf?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
+  // saved configurations: each caller lists and saves their own; someone else's answers 404
+  { route: 'GET /api/configurations', path: () => '/api/configurations', expected: statuses(401, 200, 200, 200, 200) },
+  {
+    route: 'POST /api/configurations', path: () => '/api/configurations', body: () => ({ entryId: configure.entryId, name: 'Access table save', params: { length: 12 } }),
+    expected: statuses(401, 201, 201, 201, 201),
+  },
+  { route: 'GET /api/configurations/:id', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.ownId}`, expected: statuses(401, 404, 404, 404, 200) },
+  { route: 'DELETE /api/configurations/:id', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.deleteId}`, expected: statuses(401, 404, 404, 404, 204) },
+  { route: 'POST /api/configurations/:id/share', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.ownId}/share`, expected: statuses(401, 404, 404, 404, 200) },
+  { route: 'DELETE /api/configurations/:id/share', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.unshareId}/share`, expected: statuses(401, 404, 404, 404, 204) },
+  ...['check', 'stl', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
+    route: `GET /api/configurations/:id/${file}`, case: "the admin's (owner only)", path: () => `/api/configurations/${configure.ownId}/${file}`, expected: statuses(401, 404, 404, 404, 200),
+  })),
+  // a share link: any signed-in user, read-only
+  { route: 'GET /api/shared/:token', path: () => `/api/shared/${configure.shareToken}`, expected: statuses(401, 200, 200, 200, 200) },
+  ...['check', 'stl', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
+    route: `GET /api/shared/:token/${file}`, path: () => `/api/shared/${configure.shareToken}/${file}`, expected: statuses(401, 200, 200, 200, 200),
+  })),
 ]
 
 beforeAll(async () => {
@@ -152,7 +179,21 @@ beforeAll(async () => {
   await curationFixtures(contributor.id, librarian.id)
   for (const role of ROLES) tokens[role] = await signInAs(t.app, role)
   fixture.adminSearchId = (await request(t.app).post('/api/searches').set(bearer(tokens.admin)).send(SEARCH_WINDOW).expect(202)).body.id
+  await configureFixtures()
 })
+
+async function configureFixtures() {
+  const hook = (await t.context.db.models.Entry.findOne({ where: { familyId: 'snap-hook', status: 'released' }, order: [['id', 'ASC']] }))!
+  configure.entryId = hook.id
+  const save = async (name: string) =>
+    (await request(t.app).post('/api/configurations').set(bearer(tokens.admin)).send({ entryId: hook.id, name, params: { length: 12 } }).expect(201)).body.configuration.id as number
+  configure.ownId = await save('Access table own')
+  configure.deleteId = await save('Access table to delete')
+  configure.unshareId = await save('Access table to unshare')
+  await request(t.app).post(`/api/configurations/${configure.unshareId}/share`).set(bearer(tokens.admin)).expect(200)
+  const shared = await save('Access table shared')
+  configure.shareToken = (await request(t.app).post(`/api/configurations/${shared}/share`).set(bearer(tokens.admin)).expect(200)).body.shareToken
+}
 afterAll(() => t.close())
 
 async function curationFixtures(contributorId: number, librarianId: number) {
