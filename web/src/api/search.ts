@@ -1,0 +1,27 @@
+/** The search routes (docs/api.md, "Routes (search)"). */
+import type { SearchAnswer, SearchProgress, ShelfEntry } from '@catalog/search/types'
+import { request } from './client'
+import { followEventStream } from './eventStream'
+
+export type { SearchAnswer, SearchProgress, SearchResult, Confirmation, ShelfEntry } from '@catalog/search/types'
+
+export interface SearchJobStart {
+  id: string
+  status: 'running' | 'done'
+  cached: boolean
+}
+
+export type SearchJobEvent =
+  | { event: 'progress'; data: SearchProgress }
+  | { event: 'result'; data: SearchAnswer & { cached: boolean } }
+  | { event: 'error'; data: { error: { code: string; message: string; details: Record<string, unknown> | null } } }
+  | { event: 'cancelled'; data: { id: string } }
+
+export const searchApi = {
+  shelf: () => request<{ entries: ShelfEntry[] }>('GET', '/api/shelf').then((r) => r.entries),
+  search: (window: unknown, signal?: AbortSignal) => request<SearchAnswer>('POST', '/api/search', { body: window, signal }),
+  start: (window: unknown) => request<SearchJobStart>('POST', '/api/searches', { body: window }),
+  follow: (id: string, onEvent: (event: SearchJobEvent) => void, signal?: AbortSignal) =>
+    followEventStream(`/api/searches/${encodeURIComponent(id)}/events`, (e) => onEvent(e as SearchJobEvent), signal),
+  cancel: (id: string) => request<void>('DELETE', `/api/searches/${encodeURIComponent(id)}`),
+}

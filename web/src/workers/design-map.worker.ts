@@ -1,0 +1,12 @@
+/// <reference lib="webworker" />
+/** Computes design-space maps off the page's thread (see composables/designMap.ts). */
+import { computeDesignMap, type DesignMapRequest } from '@/composables/designMap'
+
+self.onmessage = (event: MessageEvent<{ id: number; request: DesignMapRequest }>) => {
+  const { id, request } = event.data
+  try {
+    self.postMessage({ id, map: computeDesignMap(request) })
+  } catch (e) {
+    self.postMessage({ id, error: (e as Error).message })
+  }
+}
