@@ -2,8 +2,8 @@
  * A measured curve against the predicted curve of the revision it tested: the differences
  * in peak force, valley force and initial stiffness, and the fitted effective modulus.
  */
-import { extentOf } from './interpolate'
-import { INITIAL_SLOPE_FRACTION, initialSlope, peakOf, valleyOf } from './curve-features'
+import { extentOf, interpolateAt } from './interpolate'
+import { INITIAL_SLOPE_FRACTION, MIN_SLOPE_POINTS, initialSlope, peakOf, valleyOf } from './curve-features'
 import { fitModulus, type ModulusFit } from './fit-modulus'
 import type { SampledCurve } from './types'
 
@@ -41,6 +41,23 @@ function differenceOf(measured: number | null | undefined, predicted: number | n
   return { measured, predicted, difference: measured - predicted, relative: predicted === 0 ? null : (measured - predicted) / Math.abs(predicted) }
 }
 
+/**
+ * The predicted curve read at the measured displacements, so that both initial slopes are
+ * fitted through the same abscissae (a curved start would otherwise give different
+ * slopes for different sampling); the prediction's own samples when too few overlap.
+ */
+function predictedAtMeasured(measured: SampledCurve, predicted: SampledCurve): SampledCurve {
+  const displacement: number[] = []
+  const force: number[] = []
+  for (const d of measured.displacement) {
+    const f = interpolateAt(predicted.displacement, predicted.force, d)
+    if (f === null) continue
+    displacement.push(d)
+    force.push(f)
+  }
+  return displacement.length >= MIN_SLOPE_POINTS ? { displacement, force } : predicted
+}
+
 export function compareToPrediction(measured: SampledCurve, predicted: SampledCurve, options: CompareOptions): CurveComparison {
   const [mLo, mHi] = extentOf(measured.displacement)
   const [pLo, pHi] = extentOf(predicted.displacement)
@@ -50,7 +67,7 @@ export function compareToPrediction(measured: SampledCurve, predicted: SampledCu
   return {
     peakForce: differenceOf(peakOf(measured)?.force, peakOf(predicted)?.force),
     valleyForce: options.hasValley ? differenceOf(valleyOf(measured)?.force, valleyOf(predicted)?.force) : null,
-    stiffness: differenceOf(initialSlope(measured, stiffnessOver), initialSlope(predicted, stiffnessOver)),
+    stiffness: differenceOf(initialSlope(measured, stiffnessOver), initialSlope(predictedAtMeasured(measured, predicted), stiffnessOver)),
     stiffnessOver,
     modulusFit: fit,
     modulusFitProblem: reason,
