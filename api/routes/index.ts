@@ -5,14 +5,10 @@ import { authRouter } from './auth'
 import { configurationsRouter, sharedRouter } from './configurations'
 import { configureRouter } from './configure'
 import { curationRouter } from './curation'
-import { curationRouter } from './curation'
 import { entriesRouter } from './entries'
 import { familiesRouter } from './families'
 import { healthRouter } from './health'
 import { materialsRouter } from './materials'
-import { outboxRouter } from './outbox'
-import { entryReportsRouter, reportsRouter } from './reports'
-import { reviewQueueRouter } from './review-queue'
 import { outboxRouter } from './outbox'
 import { entryReportsRouter, reportsRouter } from './reports'
 import { reviewQueueRouter } from './review-queue'
@@ -29,11 +25,6 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },
     { path: '/entries', router: entriesRouter(context) },
-    { path: '/entries', router: curationRouter(context) },
-    { path: '/entries', router: entryReportsRouter(context) },
-    { path: '/reports', router: reportsRouter(context) },
-    { path: '/review-queue', router: reviewQueueRouter(context) },
-    { path: '/outbox', router: outboxRouter(context) },
     { path: '/entries', router: configureRouter(context) },
     { path: '/configurations', router: configurationsRouter(context) },
     { path: '/shared', router: sharedRouter(context) },
