@@ -78,6 +78,11 @@ export function setAuthToken(token: string | null): void {
   authToken = token
 }
 
+/** The Authorization header for requests made outside request() (event streams). */
+export function authorizationHeaders(): Record<string, string> {
+  return authToken ? { Authorization: `Bearer ${authToken}` } : {}
+}
+
 /** Called when a signed-in request comes back 401 (expired or revoked token). */
 export function setUnauthenticatedHandler(handler: (() => void) | null): void {
   onUnauthenticated = handler

@@ -5,6 +5,8 @@ import type { Entry, EntrySummary, EvaluateRequest, Evaluation, Family, Grantabl
 export { ApiError, isAbort, request, setAuthToken, setUnauthenticatedHandler } from './client'
 export type { FieldIssue } from './client'
 export type * from './types'
+export { searchApi } from './search'
+export type { SearchAnswer, SearchJobEvent, SearchJobStart, SearchProgress, SearchResult } from './search'
 
 export const authApi = {
   signIn: (email: string, password: string) => request<Session>('POST', '/api/auth/signin', { body: { email, password } }),

@@ -15,6 +15,7 @@ const router = createRouter({
     { path: '/', name: 'shelf', component: ShelfView, meta: { role: 'engineer', title: 'Shelf' } },
     // route level code-splitting: each view below is loaded when it is first visited
     { path: '/signin', name: 'signin', component: () => import('@/views/SignInView.vue'), meta: { public: true, guestOnly: true, title: 'Sign in' } },
+    { path: '/search', name: 'search', component: () => import('@/views/SearchView.vue'), meta: { role: 'engineer', title: 'Search' } },
     { path: '/entries/:id(\\d+)', name: 'entry', component: () => import('@/views/EntryView.vue'), meta: { role: 'engineer', title: 'Entry' } },
     { path: '/admin/users', name: 'admin-users', component: () => import('@/views/AdminUsersView.vue'), meta: { role: 'admin', title: 'People and roles' } },
     { path: '/forbidden', name: 'forbidden', component: () => import('@/views/ForbiddenView.vue'), meta: { public: true, title: 'Not for your role' } },
