@@ -1,6 +1,17 @@
 import type { BandMatrix } from './band'
-import { createElementOutput, ELEMENT_STRIDE, evaluateBeam } from './corotational-beam'
-import { CONTROL, SCATTER_GENERAL, SCATTER_KCC, SCATTER_KFC, type FrameModel } from './frame-model'
+import * as beam from './corotational-beam'
+import * as codes from './frame-model'
+import type { FrameModel } from './frame-model'
+
+// Module-local copies of the constants used in the element loop: a loader that turns imports
+// into property getters (tsx does) would otherwise call a getter at every use, a quarter of
+// the assembly time on small frames.
+const { createElementOutput, evaluateBeam } = beam
+const ELEMENT_STRIDE = beam.ELEMENT_STRIDE
+const CONTROL = codes.CONTROL
+const SCATTER_GENERAL = codes.SCATTER_GENERAL
+const SCATTER_KCC = codes.SCATTER_KCC
+const SCATTER_KFC = codes.SCATTER_KFC
 
 /** What one assembly returns besides the residual and the tangent. */
 export interface AssemblyState {
