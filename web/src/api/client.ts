@@ -95,7 +95,9 @@ export interface RequestOptions {
 
 export async function request<T>(method: string, path: string, options: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' }
-  if (options.body !== undefined) headers['Content-Type'] = 'application/json'
+  // a FormData body (multipart upload) sets its own content type with the boundary
+  const isForm = typeof FormData !== 'undefined' && options.body instanceof FormData
+  if (options.body !== undefined && !isForm) headers['Content-Type'] = 'application/json'
   const sentToken = authToken
   if (sentToken) headers.Authorization = `Bearer ${sentToken}`
   let response: Response
@@ -103,7 +105,7 @@ export async function request<T>(method: string, path: string, options: RequestO
     response = await fetch(path, {
       method,
       headers,
-      body: options.body === undefined ? undefined : JSON.stringify(options.body),
+      body: options.body === undefined ? undefined : isForm ? (options.body as FormData) : JSON.stringify(options.body),
       signal: options.signal,
     })
   } catch (cause) {
@@ -126,4 +128,24 @@ export async function request<T>(method: string, path: string, options: RequestO
 
 export function isAbort(error: unknown): boolean {
   return error instanceof DOMException && error.name === 'AbortError'
+}
+
+/** A signed-in GET for a file (a report's CSV or photo): the bytes as a Blob, failures as ApiError. */
+export async function requestBlob(path: string, signal?: AbortSignal): Promise<Blob> {
+  const headers: Record<string, string> = {}
+  const sentToken = authToken
+  if (sentToken) headers.Authorization = `Bearer ${sentToken}`
+  let response: Response
+  try {
+    response = await fetch(path, { headers, signal })
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause
+    throw new ApiError(0, 'network', 'The server cannot be reached. Check the connection and try again.')
+  }
+  if (!response.ok) {
+    const error = parseErrorBody(response.status, await response.text())
+    if (response.status === 401 && sentToken && onUnauthenticated) onUnauthenticated()
+    throw error
+  }
+  return response.blob()
 }

@@ -45,7 +45,8 @@ export interface Material {
   source: string
 }
 
-export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired'
+/** A change proposal that is released becomes `merged` (it lives on as the entry's next revision). */
+export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired' | 'rejected' | 'merged'
 
 export interface PersonRef {
   id: number

@@ -19,6 +19,8 @@ export const statusLabels: Record<EntryStatus, string> = {
   in_review: 'In review',
   released: 'Released',
   retired: 'Retired',
+  rejected: 'Not accepted',
+  merged: 'Merged',
 }
 
 export const kindLabels: Record<ModuleKind, string> = {

@@ -1,0 +1,120 @@
+import { computed, onMounted, ref, shallowRef, watch, type Ref } from 'vue'
+import { ApiError } from '@/api'
+import { curationApi, type EntryDetail, type EntryDiff, type ReviewQueue } from '@/api/curation'
+import { useReferenceStore } from '@/stores/reference'
+import { useReviewStore } from '@/stores/review'
+import { changeCount } from './diff'
+import type { OverlayCurve } from './curveOverlay'
+
+const asError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
+
+/** The curves of a proposal's review: the current revision (if any) under the proposed curve. */
+export function reviewCurves(diff: Pick<EntryDiff, 'curves' | 'against'> | null): OverlayCurve[] {
+  if (!diff) return []
+  const out: OverlayCurve[] = []
+  if (diff.curves.a) out.push({ id: 'current', label: `Current, revision ${diff.against?.number ?? ''}`.trim(), role: 'before', curve: diff.curves.a })
+  if (diff.curves.b) out.push({ id: 'proposed', label: 'Proposed', role: 'after', curve: diff.curves.b })
+  return out
+}
+
+/** What waits for a librarian: proposals in review and submitted test reports. */
+export function useReviewQueue() {
+  const reviewStore = useReviewStore()
+  const reference = useReferenceStore()
+  const queue = shallowRef<ReviewQueue>({ entries: [], reports: [] })
+  const loading = ref(true)
+  const error = shallowRef<ApiError | null>(null)
+
+  async function load() {
+    loading.value = true
+    error.value = null
+    try {
+      const [q] = await Promise.all([curationApi.reviewQueue(), reference.load()])
+      queue.value = q
+      reviewStore.set(q.entries.length + q.reports.length)
+    } catch (e) {
+      error.value = asError(e)
+    } finally {
+      loading.value = false
+    }
+  }
+
+  const proposals = computed(() => queue.value.entries.map(({ entry, diff }) => ({
+    ...entry,
+    changes: changeCount(diff) + diff.fields.filter((f) => f.changed).length,
+    isChange: !!entry.proposalForId,
+    evaluationProblem: diff.evaluationProblem,
+  })))
+
+  onMounted(load)
+  return { queue, proposals, reports: computed(() => queue.value.reports), loading, error, load }
+}
+
+/** One proposal under review: the entry, its diff against the current revision, comments and decisions. */
+export function useReviewEntry(id: Ref<number>) {
+  const reference = useReferenceStore()
+  const reviewStore = useReviewStore()
+  const entry = shallowRef<EntryDetail | null>(null)
+  const diff = shallowRef<EntryDiff | null>(null)
+  const loading = ref(true)
+  const error = shallowRef<ApiError | null>(null)
+  const acting = ref(false)
+  const posting = ref(false)
+  const commentError = ref('')
+
+  async function load() {
+    loading.value = true
+    error.value = null
+    try {
+      const [e, d] = await Promise.all([curationApi.show(id.value), curationApi.diff(id.value), reference.load()])
+      entry.value = e
+      diff.value = d
+    } catch (e) {
+      error.value = asError(e)
+    } finally {
+      loading.value = false
+    }
+  }
+
+  const family = computed(() => (entry.value ? reference.family(entry.value.familyId) ?? null : null))
+  const curves = computed(() => reviewCurves(diff.value))
+  const materialName = (mid: string) => reference.materials.find((m) => m.id === mid)?.name ?? mid
+
+  /** Runs a decision; answers true when the server took it (so a dialog may close). */
+  async function decide(run: () => Promise<EntryDetail>): Promise<{ ok: true; entry: EntryDetail } | { ok: false; error: ApiError }> {
+    acting.value = true
+    try {
+      const updated = await run()
+      entry.value = { ...updated, comments: updated.comments ?? entry.value?.comments ?? [] }
+      reviewStore.refresh()
+      return { ok: true, entry: updated }
+    } catch (e) {
+      return { ok: false, error: asError(e) }
+    } finally {
+      acting.value = false
+    }
+  }
+
+  const release = () => decide(() => curationApi.release(id.value))
+  const reject = (reason: string) => decide(() => curationApi.reject(id.value, reason))
+  const requestChanges = (comment: string) => decide(() => curationApi.requestChanges(id.value, comment))
+
+  async function comment(text: string): Promise<boolean> {
+    if (!entry.value) return false
+    posting.value = true
+    commentError.value = ''
+    try {
+      const created = await curationApi.comment(entry.value.id, text)
+      entry.value = { ...entry.value, comments: [...entry.value.comments, created] }
+      return true
+    } catch (e) {
+      commentError.value = asError(e).message
+      return false
+    } finally {
+      posting.value = false
+    }
+  }
+
+  watch(id, load, { immediate: true })
+  return { entry, diff, family, curves, loading, error, acting, posting, commentError, load, release, reject, requestChanges, comment, materialName }
+}
