@@ -7,7 +7,11 @@ export function zodIssues(error: z.ZodError): FieldIssue[] {
   for (const issue of error.issues) {
     if (issue.code === 'unrecognized_keys') {
       const prefix = issue.path.length ? `${issue.path.join('.')}.` : ''
-      for (const key of issue.keys) issues.push({ field: prefix + key, message: `${prefix + key} is not an accepted field` })
+      for (const key of issue.keys) {
+        // an empty key would otherwise read as " is not an accepted field"
+        const shown = key === '' ? `${prefix}"" (an empty field name)` : prefix + key
+        issues.push({ field: prefix + key, message: `${shown} is not an accepted field` })
+      }
     } else {
       const field = issue.path.length ? issue.path.join('.') : 'body'
       issues.push({ field, message: issue.message })
