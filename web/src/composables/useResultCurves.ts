@@ -9,12 +9,16 @@ export function useResultCurves() {
   const curves = reactive(new Map<string, CurveState>())
   const keyOf = (r: SearchResult) => `${r.entryId}|${JSON.stringify(r.params)}`
 
-  function request(result: SearchResult) {
+  /**
+   * The exact solver's curve when the result was confirmed with it; otherwise the fast
+   * method when it is one of the family's own (a table estimate is not), else the default.
+   */
+  function request(result: SearchResult, familyMethods: readonly string[] = []) {
     const key = keyOf(result)
     if (curves.has(key)) return
     curves.set(key, { status: 'loading' })
-    const method = result.confirmed?.method ?? result.method
-    familiesApi.evaluate(result.family, { params: result.params, method })
+    const method = result.confirmed?.method ?? (familyMethods.includes(result.method) ? result.method : undefined)
+    familiesApi.evaluate(result.family, { params: result.params, ...(method ? { method } : {}) })
       .then((e) => curves.set(key, { status: 'ready', curve: e.curve }))
       .catch((e: Error) => curves.set(key, { status: 'failed', message: e.message }))
   }
