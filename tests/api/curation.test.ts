@@ -30,7 +30,7 @@ const DRAFT = {
   summary: 'Bistable switch in the lid of the P3 soil probe.',
   tags: ['switch', 'P3'],
   defaultParams: { span: 50, apexHeight: 2, thickness: 0.7, depth: 6, material: 'petg' },
-  ranges: { span: [40, 60], thickness: [0.6, 0.9] },
+  ranges: { span: [40, 60], thickness: [0.6, 0.9] } as Record<string, [number, number]>,
   materials: ['petg'],
   notes: 'Print flat.',
 }
@@ -193,7 +193,7 @@ describe('the loop for a new entry: draft → review → released → retired', 
     const entry = res.body.entry
     expect(entry.status).toBe('released')
     expect(entry.revisions).toHaveLength(1)
-    const expected = evaluate('bistable-beam', { ...DRAFT.defaultParams, postLength: 0 }, { ranges: DRAFT.ranges as Record<string, [number, number]> })
+    const expected = evaluate('bistable-beam', { ...DRAFT.defaultParams, postLength: 0 }, { ranges: DRAFT.ranges })
     expect(entry.revisions[0]).toMatchObject({ number: 1, method: 'nonlinear-fe', params: expected.params, metrics: expected.metrics, warnings: expected.warnings, createdBy: { displayName: 'Bram Kettleby' } })
     expect(entry.revisions[0].curve.force).toEqual(expected.curve.force)
     expect(entry.currentRevision).toMatchObject({ id: entry.revisions[0].id, number: 1 })
