@@ -336,3 +336,26 @@ describe('reviewing a report', () => {
     expect(res.body.report).toMatchObject({ status: 'rejected', reviewNote: 'Fixture slipped.' })
   })
 })
+
+describe('POST /api/entries/:id/reports on a hinge entry (rotation against moment)', () => {
+  let hingeId: number
+  beforeAll(async () => {
+    const entry = (await t.context.db.models.Entry.findOne({ where: { familyId: 'notch-hinge', status: 'released' } }))!
+    hingeId = entry.id
+  })
+  const rows = [['rotation (deg)', 'moment (N·mm)'], [0, 0], [1, 2.1], [2, 4.2], [3, 6.2], [4, 8.1], [5, 10]]
+
+  it('reads degrees and N·mm by default', async () => {
+    const res = await request(t.app).post(`/api/entries/${hingeId}/reports`).set(bearer(tokens.contributor))
+      .field('printer', 'P').field('material', 'PETG').attach('file', csv(rows), 'hinge.csv')
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    expect(res.body.report.measuredCurve).toEqual({ displacement: [0, 1, 2, 3, 4, 5], force: [0, 2.1, 4.2, 6.2, 8.1, 10] })
+  })
+
+  it('refuses length and force units, naming both fields', async () => {
+    const res = await request(t.app).post(`/api/entries/${hingeId}/reports`).set(bearer(tokens.contributor))
+      .field('printer', 'P').field('material', 'PETG').field('displacementUnit', 'mm').field('forceUnit', 'N').attach('file', csv(rows), 'hinge.csv')
+    expect(res.status).toBe(400)
+    expect(res.body.error.details.issues.map((i: { field: string }) => i.field)).toEqual(['displacementUnit', 'forceUnit'])
+  })
+})
