@@ -3,13 +3,13 @@ import type { AxisSpec, MethodInfo, MetricSpec, MetricValue, ModelInput, ModelOu
 import { closedFormForce, closedFormMetrics, closedFormStrain, CRITICAL_Q } from './closed-form'
 import { snapMetrics, type SnapMetrics } from './curve-metrics'
 import { estimateRigidPeak } from './estimate'
-import { FE_POINTS, solveBistableFe } from './fe-model'
+import { FE_POINTS, solveBistableCurve } from './fe-model'
 import { MIN_SLENDERNESS } from './params'
 
 export const methods: MethodInfo[] = [
   {
     id: 'nonlinear-fe', label: 'Nonlinear beam finite elements',
-    source: 'Corotational Euler–Bernoulli beam elements (Crisfield 1991; shallow-arch local strain, Battini & Pacoste 2002), displacement-controlled Newton–Raphson path following with the second symmetric shape seeded at the bifurcation (Qiu, Lang & Slocum 2004).',
+    source: 'Corotational Euler–Bernoulli beam elements (Crisfield 1991; shallow-arch local strain, Battini & Pacoste 2002), displacement-controlled Newton–Raphson path following with the second symmetric shape seeded at the bifurcation (Qiu, Lang & Slocum 2004); mesh error removed by Richardson extrapolation from two meshes (Richardson 1911).',
   },
   {
     id: 'closed-form', label: 'Two-mode closed form',
@@ -91,7 +91,7 @@ export function evaluate(input: ModelInput): ModelOutput {
   if (method === 'closed-form') {
     ({ x, f, strain, m } = closedForm(p, material.modulus))
   } else {
-    const fe = solveBistableFe({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength, modulus: material.modulus })
+    const fe = solveBistableCurve({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength, modulus: material.modulus })
     x = fe.displacement
     f = fe.force
     strain = fe.strain

@@ -8,7 +8,7 @@
  *   fix the shape. p is spaced quadratically: short posts already change the curve a lot.
  * Forces scale with 2·E·I·h/l³ (two beams), energies with that times h, strain with t·h/l².
  */
-import { solveBistableFe, type BistableGeometry } from './fe-model'
+import { solveBistableCurve, type BistableGeometry } from './fe-model'
 import { snapMetrics } from './curve-metrics'
 
 export const TABLE_METRICS = ['peak', 'valley', 'peakAt', 'valleyAt', 'unstableAt', 'secondAt', 'workIn', 'barrier', 'strain'] as const
@@ -50,7 +50,7 @@ export function nodeMetrics(q: number, eta: number, p: number): Record<TableMetr
   const scale = (2 * g.modulus * ((g.depth * g.thickness ** 3) / 12) * g.apexHeight) / g.span ** 3
   const h = g.apexHeight
   try {
-    const fe = solveBistableFe(g)
+    const fe = solveBistableCurve(g)
     const m = snapMetrics(fe.displacement, fe.force)
     return {
       peak: m.peakForce / scale, valley: m.valleyForce / scale,

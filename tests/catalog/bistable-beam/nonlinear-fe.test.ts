@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { closedFormMetrics } from '../../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../../catalog/families/bistable-beam/curve-metrics'
-import { FE_ELEMENTS, halfBeamFrame, solveBistableFe, type BistableGeometry } from '../../../catalog/families/bistable-beam/fe-model'
+import { CONVERGENCE_ORDER, extrapolateCurves, FE_ELEMENTS, halfBeamFrame, solveBistableCurve, solveBistableFe, type BistableGeometry } from '../../../catalog/families/bistable-beam/fe-model'
 import { followPath, meshCurve, rectangleSection, type Frame } from '../../../catalog/solvers'
 
 /** A shallow pair (h/l = 0.02) normalised so that the force scale 2EIh/l³ is returned with it. */
@@ -15,6 +15,16 @@ function metricsOf(g: BistableGeometry, elements = FE_ELEMENTS, imperfection?: n
   const c = solveBistableFe(g, elements, undefined, imperfection)
   return { m: snapMetrics(c.displacement, c.force), path: c.path }
 }
+
+/** The curve the family returns: Richardson extrapolation from FE_ELEMENTS and half as many. */
+function defaultMetricsOf(g: BistableGeometry) {
+  const c = solveBistableCurve(g)
+  return snapMetrics(c.displacement, c.force)
+}
+
+/** Benchmark cases where the valley is a small difference of large terms (scripts/bench/bistable.ts). */
+const NEAR_CRITICAL: BistableGeometry = { span: 50, apexHeight: 2, thickness: 0.8, depth: 5, postLength: 0, modulus: 2000 }
+const SIDE_POSTS: BistableGeometry = { span: 60, apexHeight: 4.8, thickness: 0.8, depth: 5, postLength: 3, modulus: 2000 }
 
 describe('bistable-beam nonlinear FE', () => {
   it('bifurcation: the perfect symmetric path overestimates the peak by a wide margin and is unstable; the seeded path is stable (Qiu et al. 2004; REFERENCES.md §1)', () => {
@@ -62,7 +72,56 @@ describe('bistable-beam nonlinear FE', () => {
       const atDefault = metricsOf(g).m
       expect(Math.abs(atDefault.peakForce / converged.peakForce - 1)).toBeLessThan(0.01)
       expect(Math.abs(atDefault.valleyForce - converged.valleyForce) / Math.abs(converged.valleyForce)).toBeLessThan(0.01)
+      const extrapolated = defaultMetricsOf(g)
+      expect(Math.abs(extrapolated.peakForce / converged.peakForce - 1)).toBeLessThan(0.01)
+      expect(Math.abs(extrapolated.valleyForce - converged.valleyForce) / Math.abs(converged.valleyForce)).toBeLessThan(0.01)
     }
+    // near the bistability limit and with side posts the valley is small beside the peak, and a
+    // single 20-element mesh misses it by 2–3 % of itself; the family's curve (Richardson from
+    // 20 and 10 elements) is within 1 %, and at least four times closer than the single mesh
+    for (const g of [NEAR_CRITICAL, SIDE_POSTS]) {
+      const meshes = [5, 10, 20, 40, 160].map((n) => metricsOf(g, n).m)
+      const converged = meshes[4]
+      const valleyErrors = meshes.slice(0, 4).map((m) => Math.abs(m.valleyForce / converged.valleyForce - 1))
+      for (let i = 1; i < valleyErrors.length; i++) expect(valleyErrors[i]).toBeLessThan(valleyErrors[i - 1])
+      const observed = defaultMetricsOf(g)
+      const valleyError = Math.abs(observed.valleyForce / converged.valleyForce - 1)
+      expect(Math.abs(observed.peakForce / converged.peakForce - 1)).toBeLessThan(0.01)
+      expect(valleyError).toBeLessThan(0.01)
+      expect(valleyError).toBeLessThan(valleyErrors[2] / 4)
+    }
+  })
+
+  it(`the mesh error falls as h^${CONVERGENCE_ORDER}, the order the Richardson extrapolation assumes (observed order log₂ of successive differences, Richardson 1911)`, () => {
+    for (const g of [pair(6, 0.075).g, NEAR_CRITICAL, SIDE_POSTS]) {
+      const [a, b, c] = [10, 20, 40].map((n) => metricsOf(g, n).m)
+      const order = (x: number, y: number, z: number) => Math.log2((x - y) / (y - z))
+      expect(Math.abs(order(a.peakForce, b.peakForce, c.peakForce) - CONVERGENCE_ORDER)).toBeLessThan(0.1)
+      expect(Math.abs(order(a.valleyForce, b.valleyForce, c.valleyForce) - CONVERGENCE_ORDER)).toBeLessThan(0.1)
+    }
+  })
+
+  it('the extrapolated curve runs from 0 to 2·apexHeight with rising displacement, and its extrema are the extrapolated extrema of the two meshes (Richardson 1911)', () => {
+    const g = NEAR_CRITICAL
+    const curve = solveBistableCurve(g)
+    expect(curve.displacement[0]).toBe(0)
+    expect(curve.force[0]).toBe(0)
+    expect(curve.displacement.at(-1)).toBe(2 * g.apexHeight)
+    for (let i = 1; i < curve.displacement.length; i++) expect(curve.displacement[i]).toBeGreaterThan(curve.displacement[i - 1])
+    expect(curve.displacement.length).toBeGreaterThanOrEqual(101)
+    const fine = metricsOf(g, FE_ELEMENTS).m, coarse = metricsOf(g, FE_ELEMENTS / 2).m
+    const expected = (f: number, c: number) => f + (f - c) / (2 ** CONVERGENCE_ORDER - 1)
+    const observed = snapMetrics(curve.displacement, curve.force)
+    expect(observed.peakForce).toBeCloseTo(expected(fine.peakForce, coarse.peakForce), 9)
+    expect(observed.valleyForce).toBeCloseTo(expected(fine.valleyForce, coarse.valleyForce), 9)
+    expect(observed.valleyAt).toBeCloseTo(expected(fine.valleyAt, coarse.valleyAt), 9)
+  })
+
+  it('no extrapolation between curves that disagree on the extrema (a shallow arch whose force only rises)', () => {
+    const bistable = solveBistableFe(NEAR_CRITICAL, FE_ELEMENTS)
+    const monostable = solveBistableFe({ ...NEAR_CRITICAL, apexHeight: 0.4 }, FE_ELEMENTS / 2)
+    expect(monostable.path.extrema.length).not.toBe(bistable.path.extrema.length)
+    expect(extrapolateCurves(bistable, monostable)).toBeNull()
   })
 
   it('the half-beam model equals the whole module: two full beams joined by a rigid shuttle that cannot rotate but may slide (symmetry; mode 2 suppressed)', () => {
