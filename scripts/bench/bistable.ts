@@ -1,13 +1,17 @@
 /**
  * Benchmark section: the bistable curved-beam pair. For a table of cases: median time of one
- * full nonlinear curve (≥ 101 points to 2·apexHeight, default mesh), its peak and valley
- * error against a 160-element mesh, closed-form and table-interpolation evaluations per
- * second; then the table's interpolation error against direct solves. Asserts nothing.
+ * full nonlinear curve as the family computes it (≥ 101 points to 2·apexHeight; Richardson
+ * extrapolation from the default mesh and half of it), wall clock and CPU time; its peak and
+ * valley error, each against its own mesh-converged value (Richardson from 160 and 320
+ * elements), next to the valley error of the single default mesh; closed-form and
+ * table-interpolation evaluations per second; then the table's interpolation error against
+ * direct solves. Prints the load average, since the machine is shared. Asserts nothing.
  */
+import { availableParallelism, loadavg } from 'node:os'
 import { closedFormMetrics } from '../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../catalog/families/bistable-beam/curve-metrics'
 import { estimateBistable } from '../../catalog/families/bistable-beam/estimate'
-import { solveBistableFe, type BistableGeometry } from '../../catalog/families/bistable-beam/fe-model'
+import { FE_ELEMENTS, solveBistableCurve, solveBistableFe, type BistableGeometry } from '../../catalog/families/bistable-beam/fe-model'
 import { evaluate } from '../../catalog/index'
 
 const CASES: Array<{ label: string; g: BistableGeometry }> = [
@@ -38,36 +42,46 @@ function perSecond(fn: (i: number) => number): number {
 export interface BistableBenchRow {
   case: string
   'curve ms (median)': number
+  'cpu ms (median)': number
   points: number
   'peak err %': number
   'valley err %': number
-  'valley err % of peak': number
+  'single-mesh valley err %': number
   'closed-form /s': number
   'table /s': number
 }
 
-export function run(): { rows: BistableBenchRow[]; interpolation: Record<string, number> } {
+/** Mesh-converged reference: Richardson from 160 and 320 elements (the error falls as h², tests). */
+const REFERENCE_ELEMENTS = 320
+
+export function run(): { rows: BistableBenchRow[]; interpolation: Record<string, number>; load: { start: number[]; end: number[] } } {
+  const load = { start: loadavg(), end: [] as number[] }
   const rows: BistableBenchRow[] = []
   for (const { label, g } of CASES) {
-    for (let i = 0; i < 5; i++) solveBistableFe(g)
-    const times: number[] = []
-    let curve = solveBistableFe(g)
+    for (let i = 0; i < 5; i++) solveBistableCurve(g)
+    const times: number[] = [], cpu: number[] = []
+    let curve = solveBistableCurve(g)
     for (let i = 0; i < RUNS; i++) {
-      const t0 = performance.now()
-      curve = solveBistableFe(g)
+      const t0 = performance.now(), c0 = process.cpuUsage()
+      curve = solveBistableCurve(g)
+      const c1 = process.cpuUsage(c0)
       times.push(performance.now() - t0)
+      cpu.push((c1.user + c1.system) / 1000)
     }
     const m = snapMetrics(curve.displacement, curve.force)
-    const fine = solveBistableFe(g, 160)
-    const ref = snapMetrics(fine.displacement, fine.force)
+    const converged = solveBistableCurve(g, REFERENCE_ELEMENTS)
+    const ref = snapMetrics(converged.displacement, converged.force)
+    const single = solveBistableFe(g, FE_ELEMENTS)
+    const one = snapMetrics(single.displacement, single.force)
     const q = g.apexHeight / g.thickness
     rows.push({
       case: label,
       'curve ms (median)': median(times),
+      'cpu ms (median)': median(cpu),
       points: curve.displacement.length,
-      'peak err %': (100 * Math.abs(m.peakForce - ref.peakForce)) / ref.peakForce,
+      'peak err %': (100 * Math.abs(m.peakForce - ref.peakForce)) / Math.abs(ref.peakForce),
       'valley err %': (100 * Math.abs(m.valleyForce - ref.valleyForce)) / Math.abs(ref.valleyForce),
-      'valley err % of peak': (100 * Math.abs(m.valleyForce - ref.valleyForce)) / ref.peakForce,
+      'single-mesh valley err %': (100 * Math.abs(one.valleyForce - ref.valleyForce)) / Math.abs(ref.valleyForce),
       'closed-form /s': Math.round(perSecond((i) => closedFormMetrics(q + (i % 8) * 1e-3).peak)),
       'table /s': Math.round(perSecond((i) => (estimateBistable({ ...g, span: g.span + (i % 16) * 0.01 }, { modulus: 2000, strainLimit: 0.02 })?.peakForce as number) ?? 0)),
     })
@@ -88,8 +102,10 @@ export function run(): { rows: BistableBenchRow[]; interpolation: Record<string,
     ;(postLength === 0 ? rigid : posted).push(100 * e)
   }
   const q = (a: number[], f: number) => [...a].sort((x, y) => x - y)[Math.min(a.length - 1, Math.floor(f * a.length))]
+  load.end = loadavg()
   return {
     rows,
+    load,
     interpolation: {
       'rigid ends: median %': q(rigid, 0.5), 'rigid ends: p90 %': q(rigid, 0.9), 'rigid ends: max %': Math.max(...rigid),
       'side posts: median %': q(posted, 0.5), 'side posts: p90 %': q(posted, 0.9), 'side posts: max %': Math.max(...posted),
@@ -103,6 +119,9 @@ export function format(result: ReturnType<typeof run>): string {
   const widths = keys.map((k) => Math.max(k.length, ...result.rows.map((r) => cell(r[k]).length)))
   const line = (vals: string[]) => vals.map((v, i) => (i === 0 ? v.padEnd(widths[i]) : v.padStart(widths[i]))).join('  ')
   const lines = [line(keys as string[]), line(widths.map((w) => '-'.repeat(w))), ...result.rows.map((r) => line(keys.map((k) => cell(r[k]))))]
+  const avg = (l: number[]) => l.map((v) => v.toFixed(2)).join(' / ')
+  lines.push('', `Curve: Richardson from ${FE_ELEMENTS} and ${FE_ELEMENTS / 2} elements; errors against Richardson from ${REFERENCE_ELEMENTS} and ${REFERENCE_ELEMENTS / 2}; single mesh: ${FE_ELEMENTS} elements.`)
+  lines.push(`Load average (1 / 5 / 15 min) at start ${avg(result.load.start)}, at end ${avg(result.load.end)} on ${availableParallelism()} cores shared with others: wall times include waiting, CPU times do not.`)
   lines.push('', 'Table interpolation error against direct nonlinear-fe solves (peak/valley, % of the peak, 60 cases each):')
   for (const [k, v] of Object.entries(result.interpolation)) lines.push(`  ${k.padEnd(22)} ${v.toFixed(2)}`)
   return lines.join('\n')
