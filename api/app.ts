@@ -1,6 +1,6 @@
 /**
  * Builds the Express app; starting it is server.ts's job, so tests mount it with supertest.
- * Order: JSON body parser, deny-by-default sign-in check, resource routers, JSON 404 for
+ * Order: security headers, JSON body parser, deny-by-default sign-in check, resource routers, JSON 404 for
  * /api, the web app, a JSON 404 for everything else, and the one error handler last.
  */
 import express, { type Express } from 'express'
@@ -8,6 +8,7 @@ import type { AppContext } from './context'
 import { authenticate } from './middleware/authenticate'
 import { errorHandler } from './middleware/error-handler'
 import { notFound } from './middleware/not-found'
+import { securityHeaders } from './middleware/security-headers'
 import { apiRouters } from './routes'
 import { serveWebApp } from './web'
 
@@ -21,6 +22,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
   app.disable('x-powered-by')
   // one hop of reverse proxy at most; the sign-in limit keys on the client address
   app.set('trust proxy', 'loopback')
+  app.use(securityHeaders())
 
   const api = express.Router()
   api.use(express.json({ limit: context.config.bodyLimit }))

@@ -5,6 +5,7 @@ import { HttpError } from '../errors'
 import { currentAuth } from '../middleware/authenticate'
 import { allow, allowAnyone } from '../middleware/require-role'
 import { signIn, signOut, signUp } from '../services/auth'
+import { normalizeEmail, SigninLockout } from '../services/signin-lockout'
 import { toUserView } from '../services/users'
 
 export function authRouter(context: AppContext): Router {
@@ -33,8 +34,27 @@ export function authRouter(context: AppContext): Router {
     res.status(201).json(await signUp(context, req.body))
   }
 
+  const lockout = new SigninLockout(context.config.signinLockout)
+
   async function signin(req: Request, res: Response) {
-    res.json(await signIn(context, req.body))
+    const email = normalizeEmail(req.body?.email)
+    if (email) {
+      try {
+        lockout.assertOpen(email)
+      } catch (err) {
+        if (err instanceof HttpError && err.details) res.set('Retry-After', String(err.details.retryAfterSeconds))
+        throw err
+      }
+    }
+    try {
+      const session = await signIn(context, req.body)
+      if (email) lockout.succeeded(email)
+      res.json(session)
+    } catch (err) {
+      // only a wrong password counts; a malformed request is not a guess
+      if (email && err instanceof HttpError && err.status === 401) lockout.failed(email)
+      throw err
+    }
   }
 
   async function signout(req: Request, res: Response) {

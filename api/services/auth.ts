@@ -94,7 +94,10 @@ let dummyHash: Promise<string> | undefined
 export async function signIn(context: AppContext, body: unknown): Promise<Session> {
   const input = parseBody(signinBody, body)
   const user = await context.db.models.User.findOne({ where: { email: input.email } })
-  if (!user) {
+  // bcrypt compares only the first 72 bytes, so a longer guess could match a 72-byte
+  // password it merely starts with; no stored password is longer, so refuse it outright
+  const tooLong = Buffer.byteLength(input.password, 'utf8') > PASSWORD_MAX_BYTES
+  if (!user || tooLong) {
     dummyHash ??= bcrypt.hash('not-a-password-of-anyone', context.config.bcryptCost)
     await bcrypt.compare(input.password, await dummyHash)
     throw unauthenticated(WRONG_CREDENTIALS)

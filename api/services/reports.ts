@@ -22,6 +22,7 @@ import { listMaterials } from './materials'
 import { librarianAddresses, notify, type Notice } from './notifications'
 import { compareReport, predictedMaterialOf } from './report-comparison'
 import { CsvError, DISPLACEMENT_UNITS, FORCE_UNITS, MOMENT_UNITS, parseMeasuredCurve, ROTATION_UNITS } from './report-csv'
+import { neutraliseCsvFormulae } from './csv-safety'
 
 export interface UploadedFile {
   originalname: string
@@ -237,7 +238,8 @@ export async function reportDownload(context: AppContext, viewer: User, reportId
   } catch {
     throw notFound(which === 'file' ? 'stored file of this test report' : 'stored photo of this test report')
   }
-  if (which === 'file') return { body, contentType: 'text/csv; charset=utf-8', filename: `flexshelf-report-${report.id}.csv` }
+  // the upload's own text, but no cell a spreadsheet would run as a formula (csv-safety.ts)
+  if (which === 'file') return { body: Buffer.from(neutraliseCsvFormulae(body.toString('utf8'))), contentType: 'text/csv; charset=utf-8', filename: `flexshelf-report-${report.id}.csv` }
   const png = path.endsWith('.png')
   return { body, contentType: png ? 'image/png' : 'image/jpeg', filename: `flexshelf-report-${report.id}-photo.${png ? 'png' : 'jpg'}` }
 }

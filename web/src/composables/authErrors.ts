@@ -21,6 +21,11 @@ export function describeAuthFailure(error: unknown, mode: 'signin' | 'signup'): 
       const when = Number.isFinite(wait) && wait > 0 ? `in about ${Math.ceil(wait / 60)} minute${Math.ceil(wait / 60) === 1 ? '' : 's'}` : 'in a few minutes'
       return { message: `Too many sign-in attempts from this address. To protect accounts, sign-in is paused; try again ${when}.`, fields: {} }
     }
+    case 'account_locked': {
+      const wait = Number(error.details?.retryAfterSeconds)
+      const minutes = Number.isFinite(wait) && wait > 0 ? Math.ceil(wait / 60) : 15
+      return { message: `This account is locked after several wrong passwords. Try again in about ${minutes} minute${minutes === 1 ? '' : 's'}, or ask an admin.`, fields: {} }
+    }
     case 'conflict':
       return { message: null, fields: { email: mode === 'signup' ? 'An account with this e-mail already exists; sign in instead.' : error.message } }
     case 'validation_failed':

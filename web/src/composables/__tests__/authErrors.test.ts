@@ -11,6 +11,9 @@ describe('describeAuthFailure', () => {
     expect(describeAuthFailure(new ApiError(429, 'rate_limited', 'slow down', { retryAfterSeconds: 90 }), 'signin').message).toMatch(/Too many sign-in attempts.*about 2 minutes/)
     expect(describeAuthFailure(new ApiError(429, 'rate_limited', 'slow down'), 'signin').message).toMatch(/in a few minutes/)
   })
+  it('says a locked account is locked and for how long', () => {
+    expect(describeAuthFailure(new ApiError(423, 'account_locked', 'locked', { retryAfterSeconds: 840 }), 'signin').message).toMatch(/account is locked.*about 14 minutes/)
+  })
   it('puts a duplicate e-mail under the e-mail field', () => {
     expect(describeAuthFailure(new ApiError(409, 'conflict', 'exists'), 'signup')).toEqual({ message: null, fields: { email: 'An account with this e-mail already exists; sign in instead.' } })
   })
