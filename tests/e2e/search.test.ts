@@ -86,7 +86,7 @@ for (const theme of ['light', 'dark'] as const) {
       await page.getByRole('button', { name: 'Configure Power switch, field node shell S1, result 1' }).filter({ visible: true }).first().click()
       await page.waitForURL(/\/entries\/\d+\?params=/)
       await page.getByRole('heading', { name: 'Power switch, field node shell S1' }).waitFor()
-      await expect.poll(() => page.locator('#param-span').inputValue()).toBe(span)
+      await expect.poll(async () => Number(await page.locator('#param-span').inputValue())).toBe(Number(span))
       const params = JSON.parse(new URL(page.url()).searchParams.get('params')!)
       expect(Number(await page.locator('#param-thickness').inputValue())).toBe(params.thickness)
       await page.locator('.design-map canvas').first().waitFor()
