@@ -7,7 +7,7 @@
  */
 import { SolverError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
-import { followPath, meshStraight, rectangleSection, type Frame, type PathResult } from '../../solvers'
+import { firstCrossing, followPath, meshStraight, rectangleSection, sampleAt, type Frame, type PathResult } from '../../solvers'
 
 const DEG = 180 / Math.PI
 export const CURVE_POINTS = 41
@@ -264,19 +264,6 @@ export function solveHinge(g: HingeGeometry, modulus: number, travel: number, el
     }
   })
   return { states, path }
-}
-
-/** Fractional index where `values` first reaches `level` (linear between points), or null. */
-function firstCrossing(values: number[], level: number): number | null {
-  for (let i = 1; i < values.length; i++) {
-    if (values[i] >= level) return i - 1 + (level - values[i - 1]) / (values[i] - values[i - 1])
-  }
-  return null
-}
-
-function sampleAt(values: number[], at: number): number {
-  const i = Math.min(Math.floor(at), values.length - 2)
-  return values[i] + (values[i + 1] - values[i]) * (at - i)
 }
 
 function nonlinearFe(g: HingeGeometry, modulus: number, strainLimit: number): ModelOutput {

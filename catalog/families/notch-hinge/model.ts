@@ -3,9 +3,8 @@
  * hinges", Machine Design 37:151–156, 1965 (the same integral in Lobontiu, Compliant
  * Mechanisms: Design of Flexure Hinges, CRC 2003), full and thin-neck forms.
  */
-import { SolverError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
-import { followPath, type Frame, type FrameElement } from '../../solvers'
+import { followPath, indicesUpTo, sampleAt, strainLimitedStop, type Frame, type FrameElement } from '../../solvers'
 
 const DEG = 180 / Math.PI
 /** Points along the curve. */
@@ -204,29 +203,12 @@ function nonlinearFe(params: Record<string, number>, modulus: number, strainLimi
   const path = solveNotch(params, modulus, Math.min(estimate.maxRotation * CURVE_EXTENT * 1.25, cap))
   const rotations = path.control
   const strains = path.maxStrain
-  let governing: number | null = null
-  let strainGoverned = false
-  for (let i = 1; i < strains.length && governing === null; i++) {
-    if (strains[i] >= strainLimit) {
-      governing = i - 1 + (strainLimit - strains[i - 1]) / (strains[i] - strains[i - 1])
-      strainGoverned = true
-    }
-  }
-  if (governing === null) {
-    if (rotations[rotations.length - 1] < cap * (1 - 1e-9)) {
-      throw new SolverError('notch-hinge: the path ended before the strain limit or the end of the working range', { rotation: rotations[rotations.length - 1] })
-    }
-    governing = rotations.length - 1
-  }
-  const at = (values: number[]) => {
-    const i = Math.min(Math.floor(governing as number), values.length - 2)
-    return values[i] + (values[i + 1] - values[i]) * ((governing as number) - i)
-  }
+  const stop = strainLimitedStop(path, strainLimit, cap, 'notch-hinge')
+  const at = (values: number[]) => sampleAt(values, stop.at)
   const maxRotation = at(rotations)
-  const range: RangeResult = { maxRotation, strainGoverned }
+  const range: RangeResult = { maxRotation, strainGoverned: stop.strainGoverned }
   const warnings = commonWarnings(params, range)
-  const end = maxRotation * (strainGoverned ? CURVE_EXTENT : 1)
-  const keep = rotations.map((r, i) => (r <= end * (1 + 1e-9) ? i : -1)).filter((i) => i >= 0)
+  const keep = indicesUpTo(rotations, maxRotation * (stop.strainGoverned ? CURVE_EXTENT : 1))
   const peakStrain = at(strains)
   return {
     curve: {

@@ -4,9 +4,8 @@
  * fixed-guided beam k = 12EI/L³, two in parallel; parasitic shortening u = (3/5)δ²/L from the
  * beam constraint model of Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007.
  */
-import { SolverError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
-import { followPath, meshStraight, rectangleSection, type Frame, type PathResult } from '../../solvers'
+import { followPath, indicesUpTo, meshStraight, rectangleSection, sampleAt, strainLimitedStop, type Frame, type PathResult } from '../../solvers'
 
 export const CURVE_POINTS = 41
 /** The curve runs this far past the strain-limit travel, so the limit sits inside the plot. */
@@ -147,27 +146,11 @@ function nonlinearFe(params: Record<string, number>, modulus: number, strainLimi
   const path = solveGuide(params, modulus, Math.min(estimate.maxTravel * CURVE_EXTENT * 1.25, cap))
   const travel = path.control
   const strains = path.maxStrain
-  let governing: number | null = null
-  for (let i = 1; i < strains.length && governing === null; i++) {
-    if (strains[i] >= strainLimit) governing = i - 1 + (strainLimit - strains[i - 1]) / (strains[i] - strains[i - 1])
-  }
-  const strainGoverned = governing !== null
-  const warnings: string[] = []
-  if (governing === null) {
-    if (travel[travel.length - 1] < cap * (1 - 1e-9)) {
-      throw new SolverError('parallel-guide: the path ended before the strain limit or the end of the working range', { travel: travel[travel.length - 1] })
-    }
-    governing = travel.length - 1
-    warnings.push(capWarning(params))
-  }
-  const g = governing
-  const at = (values: number[]) => {
-    const i = Math.min(Math.floor(g), values.length - 2)
-    return values[i] + (values[i + 1] - values[i]) * (g - i)
-  }
+  const stop = strainLimitedStop(path, strainLimit, cap, 'parallel-guide')
+  const warnings: string[] = stop.strainGoverned ? [] : [capWarning(params)]
+  const at = (values: number[]) => sampleAt(values, stop.at)
   const maxTravel = at(travel)
-  const end = maxTravel * (strainGoverned ? CURVE_EXTENT : 1)
-  const keep = travel.map((d, i) => (d <= end * (1 + 1e-9) ? i : -1)).filter((i) => i >= 0)
+  const keep = indicesUpTo(travel, maxTravel * (stop.strainGoverned ? CURVE_EXTENT : 1))
   const slope = (k: number) => path.reaction[k] / travel[k]
   const peakStrain = at(strains)
   return {
