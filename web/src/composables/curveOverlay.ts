@@ -113,3 +113,41 @@ export function describeOverlay(curves: readonly OverlayCurve[]): string {
   if (!curves.length) return 'No curves to show.'
   return curves.map((c) => c.label).join('; ') + '.'
 }
+
+interface ReportLike {
+  id: number
+  revisionId: number | null
+  status: 'submitted' | 'accepted' | 'rejected'
+  printer: string
+  measuredCurve: { displacement: readonly number[]; force: readonly number[] }
+}
+
+interface RevisionLike {
+  id: number
+  number: number
+  curve: { displacement: readonly number[]; force: readonly number[] }
+}
+
+/**
+ * The entry page's overlay: the predicted curve of every revision a shown report tested
+ * (the current one when there is no report yet), then accepted reports, then — for
+ * librarians — submitted ones marked as pending. Rejected reports are never drawn.
+ */
+export function reportOverlayCurves(revisions: readonly RevisionLike[], reports: readonly ReportLike[], options: { includePending: boolean; currentRevisionId: number | null }): OverlayCurve[] {
+  const shown = reports.filter((r) => r.status === 'accepted' || (options.includePending && r.status === 'submitted'))
+  const tested = new Set(shown.map((r) => r.revisionId).filter((id): id is number => id !== null))
+  if (!tested.size && options.currentRevisionId !== null) tested.add(options.currentRevisionId)
+  const predicted = revisions
+    .filter((rev) => tested.has(rev.id))
+    .sort((a, b) => a.number - b.number)
+    .map((rev): OverlayCurve => ({ id: `predicted-${rev.id}`, label: `Predicted, revision ${rev.number}`, role: 'predicted', curve: rev.curve }))
+  const measured = shown
+    .sort((a, b) => (a.status === b.status ? a.id - b.id : a.status === 'accepted' ? -1 : 1))
+    .map((r): OverlayCurve => ({
+      id: `report-${r.id}`,
+      label: `${r.status === 'submitted' ? 'Pending: ' : ''}report ${r.id}${r.printer ? `, ${r.printer}` : ''}`,
+      role: r.status === 'submitted' ? 'pending' : 'measured',
+      curve: r.measuredCurve,
+    }))
+  return [...predicted, ...measured]
+}
