@@ -1,3 +1,4 @@
+import './zod-jitless'
 import { createApp } from 'vue'
 import { createPinia } from 'pinia'
 import App from './App.vue'

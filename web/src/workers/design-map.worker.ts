@@ -1,5 +1,6 @@
 /// <reference lib="webworker" />
 /** Computes design-space maps off the page's thread (see composables/designMap.ts). */
+import '@/zod-jitless'
 import { computeDesignMap, type DesignMapRequest } from '@/composables/designMap'
 
 self.onmessage = (event: MessageEvent<{ id: number; request: DesignMapRequest }>) => {
