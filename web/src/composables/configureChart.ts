@@ -59,6 +59,25 @@ export function bandPolygon(band: { displacement: number[]; low: number[]; high:
   return pts
 }
 
+/** A round step near span/targetTicks: 1, 2 or 5 times a power of ten. */
+export function niceStep(span: number, targetTicks = 6): number {
+  if (!(span > 0) || !Number.isFinite(span)) return 1
+  const raw = span / targetTicks
+  const power = 10 ** Math.floor(Math.log10(raw))
+  const f = raw / power
+  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * power
+}
+
+/** Axis ends on round steps that hold every value (and zero, so the axis line is in view). */
+export function niceExtent(values: readonly number[]): [number, number] {
+  const finite = values.filter(Number.isFinite)
+  let lo = Math.min(0, ...finite)
+  let hi = Math.max(0, ...finite)
+  if (lo === hi) { lo -= 1; hi += 1 }
+  const step = niceStep(hi - lo)
+  return [Math.floor(lo / step + 1e-9) * step, Math.ceil(hi / step - 1e-9) * step].map((v) => Number(v.toPrecision(12))) as [number, number]
+}
+
 export interface ConfigureChartInput {
   nominal: Curve | null
   band: { displacement: number[]; low: number[]; high: number[] } | null
@@ -73,7 +92,8 @@ export interface ConfigureChartInput {
 
 const symbols: Record<CurveMarker['kind'], { symbol: string; size: number }> = {
   stable: { symbol: 'circle', size: 11 },
-  unstable: { symbol: 'emptyCircle', size: 11 },
+  // a filled circle in the surface colour with an ink ring ('emptyCircle' would stroke in the fill colour)
+  unstable: { symbol: 'circle', size: 11 },
   peak: { symbol: 'triangle', size: 12 },
   valley: { symbol: 'path://M0,0 L10,0 L5,9 Z', size: 12 },
 }
@@ -114,18 +134,23 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
   const xMax = xs.length ? Math.max(...xs) : 1
   const series: Array<Record<string, unknown>> = []
   const legend: string[] = []
+  // the force axis holds the curves and every finite force bound of the window
+  const yExtent = niceExtent([
+    ...(nominal?.force ?? []), ...(band?.low ?? []), ...(band?.high ?? []),
+    ...overlays.filter((o) => o.kind === 'force-range').flatMap((o) => [o.min, o.max]).filter((v): v is number => v !== null),
+  ])
 
   // window: stiffness wedges as polygons under everything, force and travel ranges as mark areas
   for (const o of overlays.filter((o) => o.kind === 'slope-range')) {
     const lo = o.min ?? 0
     const hi = o.max ?? Math.max(lo * 3, lo + 1)
-    series.push(polygonSeries(o.label, [[0, 0], [xMax, lo * xMax], [xMax, hi * xMax]], p.windowBand, 0))
+    series.push({ ...polygonSeries(o.label, [[0, 0], [xMax, lo * xMax], [xMax, hi * xMax]], p.windowBand, 0), itemStyle: { color: p.window } })
     legend.push(o.label)
   }
 
   if (band) {
     const bandName = input.bandLabel ?? 'Tolerance band'
-    series.push(polygonSeries(bandName, bandPolygon(band), withAlpha(p.secondary, 0.2), 1))
+    series.push({ ...polygonSeries(bandName, bandPolygon(band), withAlpha(p.secondary, 0.2), 1), itemStyle: { color: withAlpha(p.secondary, 0.35) } })
     const edge = { type: 'line', showSymbol: false, silent: true, z: 2, lineStyle: { color: withAlpha(p.secondary, 0.55), width: 1, type: 'dashed' }, itemStyle: { color: p.secondary } }
     series.push({ ...edge, name: 'Tolerance low', data: points(band.displacement, band.low) })
     series.push({ ...edge, name: 'Tolerance high', data: points(band.displacement, band.high) })
@@ -148,10 +173,13 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
           color: p.ink, fontFamily, fontSize: 12, fontWeight: 500, distance: 8,
         },
       }))
+    // an open side runs past the axis end and is clipped there (echarts' 'min'/'max' would stop at the data)
+    const [y0, y1] = yExtent
+    const far = (y1 - y0) * 10
     const areas: unknown[] = []
     for (const o of overlays) {
-      if (o.kind === 'force-range') areas.push([{ yAxis: o.min ?? 'min', name: o.label }, { yAxis: o.max ?? 'max' }])
-      if (o.kind === 'displacement-range') areas.push([{ xAxis: o.min ?? 'min', name: o.label }, { xAxis: o.max ?? 'max' }])
+      if (o.kind === 'force-range') areas.push([{ yAxis: o.min ?? y0 - far, name: o.label }, { yAxis: o.max ?? y1 + far }])
+      if (o.kind === 'displacement-range') areas.push([{ xAxis: o.min ?? xMin - (xMax - xMin) * 10, name: o.label }, { xAxis: o.max ?? xMax + (xMax - xMin) * 10 }])
     }
     const slopeLines = overlays.filter((o) => o.kind === 'slope-range').flatMap((o) => [o.min, o.max].filter((k): k is number => k !== null).map((k) => [
       { coord: [0, 0] }, { coord: [xMax, k * xMax] },
@@ -216,7 +244,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
       valueFormatter: (v: number) => `${formatNumber(v)} ${yUnit}`,
     },
     xAxis: { ...axisCommon, type: 'value', name: name(axes.displacement), nameGap: 32, min: xMin, max: xMax },
-    yAxis: { ...axisCommon, type: 'value', name: name(axes.force), nameGap: 46 },
+    yAxis: { ...axisCommon, type: 'value', name: name(axes.force), nameGap: 46, min: yExtent[0], max: yExtent[1], interval: niceStep(yExtent[1] - yExtent[0]) },
     series,
   }
 }

@@ -35,20 +35,24 @@ export function describeConstraint(c: ConstraintCheck): { asked: string; found: 
   return { asked, found, margin: formatMargin(c.margin) }
 }
 
+/** "Peak force at most 5 N" → "peak force at most 5 N": only the first letter, units keep their case. */
+const lowerFirst = (text: string) => text.charAt(0).toLowerCase() + text.slice(1)
+
 /** A sentence under the verdict, naming the binding constraint when there is one. */
 export function verdictSentence(j: Judgement, scope: 'nominal' | 'band'): string {
   const who = scope === 'nominal' ? 'The nominal part' : 'Every tolerance corner'
-  const worst = j.constraints
-    .filter((c) => c.verdict === j.verdict)
-    .sort((a, b) => (a.margin ?? -Infinity) - (b.margin ?? -Infinity))[0]
+  const same = j.constraints.filter((c) => c.verdict === j.verdict)
+  // inside or at the edge, the closest bound is a numeric one (a second stable position has no margin)
+  const candidates = j.verdict === 'outside' ? same : same.filter((c) => c.margin !== null)
+  const worst = [...candidates].sort((a, b) => (a.margin ?? -Infinity) - (b.margin ?? -Infinity))[0]
   if (!worst) return `${who} meets every bound of the window.`
   const { asked, found } = describeConstraint(worst)
   switch (j.verdict) {
-    case 'inside': return `${who} is inside every bound; the closest is ${asked.toLowerCase()} (${found}).`
-    case 'edge': return `${scope === 'nominal' ? 'The nominal part' : 'Part of the band'} is within 5 % of a bound: ${asked.toLowerCase()} (${found}).`
+    case 'inside': return `${who} is inside every bound; the closest is ${lowerFirst(asked)} (${found}).`
+    case 'edge': return `${scope === 'nominal' ? 'The nominal part' : 'Part of the band'} is within 5 % of a bound: ${lowerFirst(asked)} (${found}).`
     case 'outside': return scope === 'nominal'
-      ? `The nominal part misses ${asked.toLowerCase()} (${found}).`
-      : `Some tolerance corner misses ${asked.toLowerCase()} (${found}).`
+      ? `The nominal part misses ${lowerFirst(asked)} (${found}).`
+      : `Some tolerance corner misses ${lowerFirst(asked)} (${found}).`
   }
 }
 
