@@ -7,7 +7,19 @@ import { join } from 'node:path'
 export interface RunningServer {
   url: string
   dataDir: string
+  /** Stops the server (SIGTERM) and removes the data folder unless it was given or kept. */
   stop: () => Promise<void>
+  /** Ends the process at once (SIGKILL: no shutdown, no flush); the data folder stays. */
+  kill: () => Promise<void>
+  /** Everything the server printed so far. */
+  output: () => string
+}
+
+export interface StartOptions {
+  /** Reuse this data folder (it is then never removed); a fresh temporary one otherwise. */
+  dataDir?: string
+  /** Keep a fresh data folder after stop (to restart on it). */
+  keepData?: boolean
 }
 
 async function freePort(): Promise<number> {
@@ -24,8 +36,9 @@ async function freePort(): Promise<number> {
 }
 
 /** Starts the real server (built web app + API) on a free loopback port over a fresh data folder. */
-export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
-  const dataDir = mkdtempSync(join(tmpdir(), 'flexshelf-e2e-'))
+export async function startServer(env: Record<string, string> = {}, options: StartOptions = {}): Promise<RunningServer> {
+  const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'flexshelf-e2e-'))
+  const removeData = !options.dataDir && !options.keepData
   const port = await freePort()
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
     env: { ...process.env, NODE_ENV: 'development', PORT: String(port), HOST: '127.0.0.1', FLEXSHELF_DATA: dataDir, ...env },
@@ -50,17 +63,25 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
     }
     await new Promise((r) => setTimeout(r, 250))
   }
+  const running = () => child.exitCode === null && child.signalCode === null
   return {
     url,
     dataDir,
+    output: () => output,
     stop: async () => {
-      if (child.exitCode === null) {
+      if (running()) {
         const exited = new Promise((r) => child.once('exit', r))
         child.kill('SIGTERM')
         await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))])
-        if (child.exitCode === null) child.kill('SIGKILL')
+        if (running()) child.kill('SIGKILL')
       }
-      rmSync(dataDir, { recursive: true, force: true })
+      if (removeData) rmSync(dataDir, { recursive: true, force: true })
+    },
+    kill: async () => {
+      if (!running()) return
+      const exited = new Promise((r) => child.once('exit', r))
+      child.kill('SIGKILL')
+      await exited
     },
   }
 }
