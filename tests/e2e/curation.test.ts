@@ -120,7 +120,7 @@ describe('curation in the browser', () => {
     // the refused cell is marked in the preview
     await modal.locator('td.bad').filter({ hasText: 'n/a' }).waitFor()
     await refusal.scrollIntoViewIfNeeded()
-    await bothThemes(page, 'upload-refused', { viewport: true, detail: modal })
+    await bothThemes(page, 'upload-refused', { viewport: true })
 
     await modal.locator('.csv-upload input[type=file]').setInputFiles(good)
     await modal.locator('.report-csv-preview').getByText(`${rows.length} data rows`).waitFor()
@@ -128,7 +128,7 @@ describe('curation in the browser', () => {
     expect(await modal.locator('.dcol').innerText()).toContain('Displacement (mm)')
     expect(await modal.locator('.fcol').innerText()).toContain('Force (N)')
     await modal.locator('.report-csv-preview').scrollIntoViewIfNeeded()
-    await bothThemes(page, 'upload-preview', { viewport: true, detail: modal })
+    await bothThemes(page, 'upload-preview', { viewport: true })
     await modal.getByRole('button', { name: 'Upload for review' }).click()
     const done = page.getByText(/Report \d+ uploaded/)
     await done.waitFor()
@@ -267,6 +267,15 @@ describe('curation in the browser', () => {
     await page.waitForURL(/\/entries\/\d+$/)
     await page.goto(`${server.url}/`)
     await page.getByRole('row').filter({ hasText: NEW_ENTRY }).filter({ hasText: 'Released' }).waitFor()
+
+    // retiring says what it means before it happens
+    await openEntry(page, NEW_ENTRY)
+    await page.getByRole('button', { name: 'Retire' }).click()
+    const confirm = page.locator('.n-dialog')
+    expect(await confirm.innerText()).toMatch(/stays readable[\s\S]*hidden from search[\s\S]*saved configurations/)
+    await bothThemes(page, 'retire-confirm', { viewport: true })
+    await confirm.getByRole('button', { name: 'Retire' }).click()
+    await page.locator('.status-badge').filter({ hasText: 'Retired' }).waitFor()
   })
 
   it('the admin reads the notification e-mails in the outbox', async () => {

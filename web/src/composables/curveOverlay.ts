@@ -130,11 +130,12 @@ interface RevisionLike {
 
 /**
  * The entry page's overlay: the predicted curve of every revision a shown report tested
- * (the current one when there is no report yet), then accepted reports, then — for
- * librarians — submitted ones marked as pending. Rejected reports are never drawn.
+ * (the current one when there is no report yet), then accepted reports, then submitted
+ * ones marked as pending (for librarians all of them, for a contributor their own). Rejected reports are never drawn.
  */
-export function reportOverlayCurves(revisions: readonly RevisionLike[], reports: readonly ReportLike[], options: { includePending: boolean; currentRevisionId: number | null }): OverlayCurve[] {
-  const shown = reports.filter((r) => r.status === 'accepted' || (options.includePending && r.status === 'submitted'))
+export function reportOverlayCurves<R extends ReportLike>(revisions: readonly RevisionLike[], reports: readonly R[], options: { includePending: boolean | ((report: R) => boolean); currentRevisionId: number | null }): OverlayCurve[] {
+  const pending = (r: R) => (typeof options.includePending === 'function' ? options.includePending(r) : options.includePending)
+  const shown = reports.filter((r) => r.status === 'accepted' || (r.status === 'submitted' && pending(r)))
   const tested = new Set(shown.map((r) => r.revisionId).filter((id): id is number => id !== null))
   if (!tested.size && options.currentRevisionId !== null) tested.add(options.currentRevisionId)
   const predicted = revisions
@@ -145,7 +146,7 @@ export function reportOverlayCurves(revisions: readonly RevisionLike[], reports:
     .sort((a, b) => (a.status === b.status ? a.id - b.id : a.status === 'accepted' ? -1 : 1))
     .map((r): OverlayCurve => ({
       id: `report-${r.id}`,
-      label: `${r.status === 'submitted' ? 'Pending: ' : ''}report ${r.id}${r.printer ? `, ${r.printer}` : ''}`,
+      label: `${r.status === 'submitted' ? 'Pending: report' : 'Report'} ${r.id}${r.printer ? `, ${r.printer}` : ''}`,
       role: r.status === 'submitted' ? 'pending' : 'measured',
       curve: r.measuredCurve,
     }))

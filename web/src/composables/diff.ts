@@ -53,7 +53,8 @@ export function diffSnapshots(family: Pick<Family, 'params' | 'metrics'> | undef
     const spec = paramSpec(key)
     return spec ? [spec.min, spec.max] : null
   }
-  const ranges = orderedKeys(paramKeys, a.ranges, b.ranges).map((key) => {
+  // every parameter has a range: one a side does not narrow is the family's own
+  const ranges = [...paramKeys, ...orderedKeys([], a.ranges, b.ranges).filter((k) => !paramKeys.includes(k))].map((key) => {
     const ra = a.ranges[key] ?? familyRange(key)
     const rb = b.ranges[key] ?? familyRange(key)
     return { key, label: paramSpec(key)?.label ?? key, unit: paramSpec(key)?.unit ?? '', a: ra, b: rb, changed: !sameValue(ra, rb) }
@@ -70,6 +71,19 @@ export function diffSnapshots(family: Pick<Family, 'params' | 'metrics'> | undef
     }
   })
   return { params, ranges, metrics }
+}
+
+/** The two sides of the server's diff rows as snapshots (a side without a value leaves the key out). */
+export function snapshotsFromRows(diff: Pick<SnapshotDiff, 'params' | 'ranges' | 'metrics'>): { a: Snapshot; b: Snapshot } {
+  const side = (which: 'a' | 'b'): Snapshot => {
+    const pick = <T>(rows: Array<{ key: string; a: T | null; b: T | null }>) => {
+      const out: Record<string, T> = {}
+      for (const r of rows) if (r[which] !== null && r[which] !== undefined) out[r.key] = r[which] as T
+      return out
+    }
+    return { params: pick(diff.params), ranges: pick(diff.ranges), metrics: pick(diff.metrics) }
+  }
+  return { a: side('a'), b: side('b') }
 }
 
 /** How many rows changed, for a one-line summary above the tables. */

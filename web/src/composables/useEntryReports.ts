@@ -35,10 +35,12 @@ export function useEntryReports(entry: Ref<EntryDetail | null>) {
   const canUpload = computed(() => session.can('contributor') && entry.value?.status === 'released' && !!entry.value.currentRevision)
   const visible = computed(() => reports.value.filter((r) => r.status !== 'rejected' || isLibrarian.value || r.uploader?.id === session.user?.id))
   const curves = computed(() => reportOverlayCurves(entry.value?.revisions ?? [], reports.value, {
-    includePending: isLibrarian.value,
+    // librarians see every report waiting for them; a contributor sees their own
+    includePending: isLibrarian.value || ((r: TestReport) => r.uploader?.id === session.user?.id),
     currentRevisionId: entry.value?.currentRevision?.id ?? null,
   }))
   const hasMeasured = computed(() => curves.value.some((c) => c.role === 'measured' || c.role === 'pending'))
+  const hasPending = computed(() => curves.value.some((c) => c.role === 'pending'))
   /** Fitted moduli of the accepted reports, per printer and material (catalog/calibration). */
   const calibration = computed(() => calibrationSummary(reports.value
     .filter((r) => r.status === 'accepted' && r.comparison?.modulusFit)
@@ -91,5 +93,5 @@ export function useEntryReports(entry: Ref<EntryDetail | null>) {
     return r.ok ? { ok: true as const, url: URL.createObjectURL(r.value) } : r
   }
 
-  return { reports, visible, curves, hasMeasured, calibration, isLibrarian, canUpload, busyId, added, decide, adopt, download, photoUrl }
+  return { reports, visible, curves, hasMeasured, hasPending, calibration, isLibrarian, canUpload, busyId, added, decide, adopt, download, photoUrl }
 }

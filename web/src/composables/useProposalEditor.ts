@@ -99,9 +99,9 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
     form.value = initialParamModel(f.params, source?.defaultParams ?? {}, about.value.materials)
   }
 
-  // a default material the proposal no longer recommends gives way to the first it does
+  // the default material is one the proposal recommends: the first, when the current one is not
   watch(() => about.value.materials, (ids) => {
-    if (form.value && ids.length && form.value.material && !ids.includes(form.value.material)) form.value.material = ids[0]
+    if (form.value && ids.length && (!form.value.material || !ids.includes(form.value.material))) form.value.material = ids[0]
   }, { deep: true })
 
   const live = useLiveEvaluation(computed(() => family.value?.id ?? null), fields, form)

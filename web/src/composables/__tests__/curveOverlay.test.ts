@@ -19,6 +19,13 @@ describe('reportOverlayCurves', () => {
     const forLibrarian = reportOverlayCurves(revisions, reports, { includePending: true, currentRevisionId: 12 })
     expect(forLibrarian.map((c) => c.id)).toEqual(['predicted-12', 'report-1', 'report-3'])
     expect(forLibrarian[2]).toMatchObject({ role: 'pending', label: 'Pending: report 3, Bench B2' })
+    expect(forLibrarian[1].label).toBe('Report 1, Bench B2')
+  })
+
+  it("shows a contributor their own pending report, not others'", () => {
+    const reports = [{ ...report(3, 'submitted'), uploader: 7 }, { ...report(4, 'submitted'), uploader: 8 }]
+    const observed = reportOverlayCurves(revisions, reports, { includePending: (r) => r.uploader === 7, currentRevisionId: 12 })
+    expect(observed.map((c) => c.id)).toEqual(['predicted-12', 'report-3'])
   })
 
   it('draws the prediction of every revision a shown report tested, oldest first', () => {

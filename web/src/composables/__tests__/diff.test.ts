@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { changeCount, diffSnapshots, formatFeatureDifference, formatFieldValue, formatMetricDifference, formatParamValue, formatRange, formatSigned, sameValue } from '../diff'
+import { changeCount, diffSnapshots, snapshotsFromRows, formatFeatureDifference, formatFieldValue, formatMetricDifference, formatParamValue, formatRange, formatSigned, sameValue } from '../diff'
 import type { ParamSpec, MetricSpec } from '@/api/types'
 
 const params: ParamSpec[] = [
@@ -41,6 +41,21 @@ describe('diffSnapshots', () => {
   it('keeps keys the family does not know, by their key', () => {
     const observed = diffSnapshots(family, { params: { legacy: 1 }, ranges: {}, metrics: {} }, { params: {}, ranges: {}, metrics: {} })
     expect(observed.params).toEqual([{ key: 'legacy', label: 'legacy', unit: '', a: 1, b: null, changed: true }])
+  })
+})
+
+describe('snapshotsFromRows', () => {
+  it("turns the server's side-by-side rows back into two snapshots, leaving out missing values", () => {
+    const observed = snapshotsFromRows({
+      params: [{ key: 'span', label: 'Span', unit: 'mm', a: null, b: 40, changed: true }],
+      ranges: [{ key: 'thickness', label: 'Thickness', unit: 'mm', a: null, b: [0.3, 0.9], changed: true }],
+      metrics: [{ key: 'stiffness', label: 'Stiffness', unit: 'N/mm', a: null, b: 0.48, difference: null, changed: true }],
+    })
+    expect(observed.a).toEqual({ params: {}, ranges: {}, metrics: {} })
+    expect(observed.b).toEqual({ params: { span: 40 }, ranges: { thickness: [0.3, 0.9] }, metrics: { stiffness: 0.48 } })
+    // through diffSnapshots every parameter gets a range row, the family's own where not narrowed
+    const rows = diffSnapshots(family, observed.a, observed.b)
+    expect(rows.ranges.map((r) => [r.key, r.b])).toEqual([['span', [10, 120]], ['thickness', [0.3, 0.9]]])
   })
 })
 
