@@ -74,7 +74,8 @@ async function columnsOf(sequelize: Sequelize): Promise<Record<string, string[]>
   return out
 }
 
-const names = async (sequelize: Sequelize) => (await createMigrator(sequelize).migrations()).map((m) => m.name)
+/** Every migration's name, in order (all of them are pending on a fresh database). */
+const names = async (sequelize: Sequelize) => (await createMigrator(sequelize).pending()).map((m) => m.name)
 
 describe('the migration list', () => {
   it('names every file in migrations/, numbered 0001, 0002, … in order', async () => {
@@ -88,7 +89,9 @@ describe('the migration list', () => {
 describe('migrating to the latest schema', () => {
   it('from empty applies every migration, then nothing the second time', async () => {
     const sequelize = freshDatabase()
-    expect(await migrate(sequelize)).toEqual(await names(sequelize))
+    const expected = await names(sequelize)
+    expect(expected.length).toBeGreaterThanOrEqual(3)
+    expect(await migrate(sequelize)).toEqual(expected)
     expect(await migrate(sequelize)).toEqual([])
   })
 
