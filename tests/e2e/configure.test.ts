@@ -1,4 +1,7 @@
-import { readFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { chromium } from 'playwright-core'
 import Papa from 'papaparse'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -200,5 +203,28 @@ describe('configure a module and take it to the printer', () => {
     // the shared link stops working with it
     await page.goto(shareLink)
     await page.getByText(/This configuration is not there/).waitFor({ timeout: 20_000 })
+  })
+
+  it('says plainly that the 3D preview is unavailable when the browser has no WebGL', async () => {
+    // the same headless flags as support/browser.ts, with WebGL switched off
+    const dir = mkdtempSync(join(tmpdir(), 'flexshelf-chromium-nogl-'))
+    const context = await chromium.launchPersistentContext(dir, {
+      executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+      headless: true,
+      viewport: { width: 1280, height: 800 },
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-webgl', '--disable-3d-apis'],
+    })
+    try {
+      const other = context.pages()[0] ?? (await context.newPage())
+      await signIn(other, server.url, 'engineer@demo.flexshelf.test')
+      await other.waitForURL(`${server.url}/`)
+      await other.goto(`${server.url}/entries/1/configure`)
+      await other.getByText('This browser cannot draw the 3D preview').waitFor({ timeout: 20_000 })
+      expect(await other.locator('canvas[aria-label^="3D preview"]').isVisible()).toBe(false)
+      await other.locator('.preview-part').screenshot({ path: join('screenshots', 'configure-preview-no-webgl.png') })
+    } finally {
+      await context.close()
+      rmSync(dir, { recursive: true, force: true })
+    }
   })
 })

@@ -225,7 +225,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
     backgroundColor: 'transparent',
     animation: false,
     textStyle: { fontFamily, color: p.ink },
-    grid: { left: 64, right: 28, top: 40, bottom: 52 },
+    grid: { left: 64, right: 52, top: 40, bottom: 52 },
     legend: {
       data: legend,
       top: 0,

@@ -45,8 +45,8 @@ export function usePartPreview(canvas: Ref<HTMLCanvasElement | null>, host: Ref<
     if (!el) return false
     try {
       renderer = new WebGLRenderer({ canvas: el, antialias: true, alpha: false, preserveDrawingBuffer: true })
-    } catch (e) {
-      unavailable.value = `This browser cannot draw 3D here (WebGL is unavailable${e instanceof Error && e.message ? `: ${e.message}` : ''}). The STL download is not affected.`
+    } catch {
+      unavailable.value = 'This browser cannot draw the 3D preview: WebGL is turned off or not supported here. The curve, the checks and the STL download are not affected.'
       return false
     }
     renderer.setPixelRatio(Math.min(window.devicePixelRatio || 1, 2))
