@@ -190,16 +190,26 @@ describe('configure a module and take it to the printer', () => {
     expect(await page.getByRole('button', { name: 'Save configuration' }).count()).toBe(0)
     expect(await page.locator('#param-thickness').count()).toBe(0) // parameters are listed, not editable
     expect(await page.locator('#window-peakForce-max').isDisabled()).toBe(true)
-    await page.getByRole('button', { name: 'Copy to my configurations' }).waitFor()
     await bothThemes('configure-shared')
+
+    // a colleague may keep a copy of their own
+    await page.getByRole('button', { name: 'Copy to my configurations' }).click()
+    expect(await page.getByLabel('Name').inputValue()).toBe('Copy of Power switch, firmer for gloves')
+    await page.getByRole('button', { name: 'Copy', exact: true }).click()
+    await page.waitForURL(/configure\?configuration=\d+/)
+    await page.getByRole('heading', { name: 'Copy of Power switch, firmer for gloves' }).waitFor()
+    await expect.poll(() => nominalVerdict().textContent(), { timeout: 20_000 }).toBe('Inside the window')
   })
 
   it('deletes a saved configuration after asking', async () => {
     await page.goto(`${server.url}/configurations`)
-    const row = page.getByRole('row').filter({ hasText: 'Power switch, firmer for gloves' })
+    const row = page.getByRole('row').filter({ has: page.getByRole('link', { name: 'Power switch, firmer for gloves', exact: true }) })
+    await row.waitFor()
+    expect(await page.locator('tbody tr').count()).toBe(2)
     await row.getByRole('button', { name: 'Delete' }).click()
     await page.locator('.n-dialog').getByRole('button', { name: 'Delete' }).click()
-    await page.getByText('Nothing saved yet').waitFor()
+    await expect.poll(() => page.locator('tbody tr').count()).toBe(1)
+    await page.getByRole('link', { name: 'Copy of Power switch, firmer for gloves' }).waitFor()
     // the shared link stops working with it
     await page.goto(shareLink)
     await page.getByText(/This configuration is not there/).waitFor({ timeout: 20_000 })

@@ -78,6 +78,12 @@ export function niceExtent(values: readonly number[]): [number, number] {
   return [Math.floor(lo / step + 1e-9) * step, Math.ceil(hi / step - 1e-9) * step].map((v) => Number(v.toPrecision(12))) as [number, number]
 }
 
+/** The axis end gets its own label unless it would crowd the last round tick (closer than 40 % of a step). */
+export function showLastLabel(min: number, max: number, step: number): boolean {
+  const past = (max - min) / step - Math.floor((max - min) / step + 1e-9)
+  return past < 1e-6 || past > 0.4
+}
+
 export interface ConfigureChartInput {
   nominal: Curve | null
   band: { displacement: number[]; low: number[]; high: number[] } | null
@@ -132,6 +138,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
   const xs = nominal?.displacement ?? []
   const xMin = xs.length ? Math.min(...xs) : 0
   const xMax = xs.length ? Math.max(...xs) : 1
+  const xStep = niceStep(xMax - xMin)
   const series: Array<Record<string, unknown>> = []
   const legend: string[] = []
   // the force axis holds the curves and every finite force bound of the window
@@ -243,7 +250,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
       axisPointer: { type: 'line', lineStyle: { color: p.inkMuted, type: 'dashed' } },
       valueFormatter: (v: number) => `${formatNumber(v)} ${yUnit}`,
     },
-    xAxis: { ...axisCommon, type: 'value', name: name(axes.displacement), nameGap: 32, min: xMin, max: xMax },
+    xAxis: { ...axisCommon, type: 'value', name: name(axes.displacement), nameGap: 32, min: xMin, max: xMax, interval: xStep, axisLabel: { ...axisCommon.axisLabel, showMaxLabel: showLastLabel(xMin, xMax, xStep) } },
     yAxis: { ...axisCommon, type: 'value', name: name(axes.force), nameGap: 46, min: yExtent[0], max: yExtent[1], interval: niceStep(yExtent[1] - yExtent[0]) },
     series,
   }

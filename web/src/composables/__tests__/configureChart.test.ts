@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { palettes } from '@/theme/tokens'
-import { bandPolygon, configureChartOption, niceExtent, niceStep, windowOverlays, withAlpha } from '../configureChart'
+import { bandPolygon, configureChartOption, niceExtent, niceStep, showLastLabel, windowOverlays, withAlpha } from '../configureChart'
 
 const axes = { displacement: { label: 'Shuttle displacement', unit: 'mm' }, force: { label: 'Force', unit: 'N' } }
 
@@ -51,6 +51,12 @@ describe('plot helpers', () => {
     expect(niceExtent([-1.17, 4.57])).toEqual([-2, 5])
     expect(niceExtent([2, 2])).toEqual([0, 2])
     expect(niceExtent([0, 0])).toEqual([-1, 1])
+  })
+
+  it('labels the axis end unless it crowds the last round tick', () => {
+    expect(showLastLabel(0, 4.2, 1)).toBe(false) // 4 and 4.2 would touch
+    expect(showLastLabel(0, 49.4, 10)).toBe(true)
+    expect(showLastLabel(0, 5, 1)).toBe(true) // the end is itself a tick
   })
 
   it('writes a token colour with an alpha', () => {
