@@ -19,7 +19,7 @@ export const statusLabels: Record<EntryStatus, string> = {
   in_review: 'In review',
   released: 'Released',
   retired: 'Retired',
-  rejected: 'Not accepted',
+  rejected: 'Rejected',
   merged: 'Merged',
 }
 

@@ -78,8 +78,8 @@ export function lockReason(entry: Pick<EntryDetail, 'status' | 'owner'> | null, 
   if (entry.owner?.id !== userId) return 'Only the contributor who wrote this proposal can edit it.'
   switch (entry.status) {
     case 'draft': return null
-    case 'in_review': return 'Submitted for review: a librarian will release it, send it back with a request for changes, or decline it.'
-    case 'rejected': return 'A librarian declined this proposal; it stays here for the record.'
+    case 'in_review': return 'Submitted for review: a librarian will release it, send it back with a request for changes, or reject it.'
+    case 'rejected': return 'A librarian rejected this proposal; it stays here for the record.'
     case 'merged': return 'Released as the next revision of the entry it proposed a change for.'
     case 'released': return 'Released: it is on the shelf. Changes now go through a change proposal.'
     case 'retired': return 'Retired: it stays readable but is hidden from search.'

@@ -7,7 +7,7 @@ import { useSessionStore } from '@/stores/session'
 export interface ProposalRow extends ProposalSummary {
   /** The released entry a change proposal is for, by name. */
   changeFor: { id: number; name: string } | null
-  /** The librarian's latest request for changes (drafts) or reason (declined). */
+  /** The librarian's latest request for changes (drafts) or reason (rejected). */
   lastDecision: EntryComment | null
 }
 
