@@ -4,6 +4,7 @@
  */
 import { randomBytes } from 'node:crypto'
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { availableParallelism } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
@@ -21,6 +22,8 @@ export interface Config {
   jwtExpiresIn: string
   bcryptCost: number
   signinRateLimit: { windowMs: number; limit: number }
+  /** Worker threads for evaluations, tolerance bands and STL (api/services/compute-pool.ts); 0 runs them on the request thread. */
+  computeThreads: number
   /** Failed sign-ins in a row that lock an account, and for how long (api/services/signin-lockout.ts). */
   signinLockout: { failures: number; lockMs: number }
   /** express.json limit for every API body. */
@@ -37,6 +40,8 @@ export interface Config {
 /** bcrypt cost of 2^12 rounds: about a quarter second per hash on a laptop core. */
 export const DEFAULT_BCRYPT_COST = 12
 export const MIN_PRODUCTION_SECRET_LENGTH = 32
+/** One compute thread per core beyond the one serving requests, at least one and at most two. */
+export const DEFAULT_COMPUTE_THREADS = Math.max(1, Math.min(2, availableParallelism() - 1))
 const JWT_SECRET_FILE = 'jwt-secret'
 
 const projectRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..')
@@ -135,6 +140,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
       windowMs: parseInteger(env.FLEXSHELF_SIGNIN_WINDOW_MS, 'FLEXSHELF_SIGNIN_WINDOW_MS', 15 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),
       limit: parseInteger(env.FLEXSHELF_SIGNIN_LIMIT, 'FLEXSHELF_SIGNIN_LIMIT', 10, 1, 10000),
     },
+    computeThreads: parseInteger(env.FLEXSHELF_COMPUTE_THREADS, 'FLEXSHELF_COMPUTE_THREADS', DEFAULT_COMPUTE_THREADS, 0, 16),
     signinLockout: {
       failures: parseInteger(env.FLEXSHELF_LOCKOUT_FAILURES, 'FLEXSHELF_LOCKOUT_FAILURES', 5, 1, 1000),
       lockMs: parseInteger(env.FLEXSHELF_LOCKOUT_MS, 'FLEXSHELF_LOCKOUT_MS', 15 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),

@@ -7,6 +7,7 @@ import { createApp } from './app'
 import { ConfigError, loadConfig } from './config'
 import { openDatabase } from './db'
 import { seedDemoData } from './db/seed'
+import { configureComputePool } from './services/compute-pool'
 
 async function main(): Promise<void> {
   const config = loadConfig()
@@ -21,6 +22,7 @@ async function main(): Promise<void> {
     if (report.familiesPending.length) console.log(`Demo entries waiting for families: ${report.familiesPending.join(', ')}`)
   }
 
+  await configureComputePool({ threads: config.computeThreads })
   const app = createApp(context)
   const server = app.listen(config.port, () => {
     const address = server.address()
@@ -34,7 +36,7 @@ async function main(): Promise<void> {
 
   const shutdown = () => {
     server.close(() => {
-      db.close().finally(() => process.exit(0))
+      Promise.allSettled([configureComputePool({ threads: 0 }), db.close()]).finally(() => process.exit(0))
     })
   }
   process.on('SIGINT', shutdown)

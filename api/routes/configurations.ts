@@ -47,9 +47,9 @@ function addReadRoutes(router: Router, param: string) {
     const { target, input: resolved } = input(req)
     res.json(checkTarget(target, resolved))
   })
-  router.get(`/:${param}/stl`, allow('engineer'), function stl(req: Request, res: Response) {
+  router.get(`/:${param}/stl`, allow('engineer'), async function stl(req: Request, res: Response) {
     const { target, input: resolved } = input(req)
-    sendFile(res, stlFile(target, resolved))
+    sendFile(res, await stlFile(target, resolved))
   })
   router.get(`/:${param}/curve.csv`, allow('engineer'), function curveCsv(req: Request, res: Response) {
     const { target, input: resolved } = input(req)

@@ -32,7 +32,7 @@ export function configureRouter(context: AppContext): Router {
 
   async function stl(req: Request<{ id: string }>, res: Response) {
     const { target, input } = await fromQuery(req)
-    sendFile(res, stlFile(target, input))
+    sendFile(res, await stlFile(target, input))
   }
 
   async function curveCsv(req: Request<{ id: string }>, res: Response) {

@@ -3,7 +3,8 @@
  * curve as CSV. The same configuration always gives the same bytes.
  */
 import Papa from 'papaparse'
-import { buildGeometry, serializeStl, validateParams } from '../../catalog'
+import { validateParams } from '../../catalog'
+import { compute } from './compute-pool'
 import type { ConfigurationInput } from './configuration-input'
 import { evaluateTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
@@ -16,12 +17,12 @@ export interface DownloadFile {
   notices: string[]
 }
 
-/** Binary STL (serializeStl of buildGeometry) of the configured part, mm. */
-export function stlFile(target: ConfigureTarget, input: ConfigurationInput): DownloadFile {
+/** Binary STL (serializeStl of buildGeometry) of the configured part, mm; built on the compute pool. */
+export async function stlFile(target: ConfigureTarget, input: ConfigurationInput): Promise<DownloadFile> {
   const { family } = target
   // the ranges and materials were checked when the input was resolved; this fills in defaults
   const { params } = validateParams(family, input.params, { ranges: target.ranges, materials: target.materials })
-  const bytes = serializeStl(buildGeometry(family.id, params))
+  const bytes = await compute.stl(family.id, params)
   return {
     fileName: downloadFileName(target.entry.name, family, params, 'stl'),
     contentType: 'model/stl',

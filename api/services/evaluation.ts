@@ -3,9 +3,10 @@
  * numbers in the database (a librarian's calibrated PETG wins over the built-in one).
  */
 import { z } from 'zod'
-import { evaluate, type Evaluation } from '../../catalog'
+import type { Evaluation } from '../../catalog'
 import type { AppContext } from '../context'
 import { bodySchema, parseBody } from '../validation'
+import { compute } from './compute-pool'
 import { findFamily } from './families'
 import { listMaterials } from './materials'
 
@@ -18,6 +19,7 @@ export async function evaluateFamily(context: AppContext, familyId: string, body
   const family = findFamily(familyId)
   const input = parseBody(evaluateBody, body)
   const materials = await listMaterials(context)
-  return evaluate(family.id, input.params ?? {}, { method: input.method, materials })
+  // a nonlinear evaluation takes tens of milliseconds: on the compute pool, off the request thread
+  return compute.evaluate(family.id, input.params ?? {}, { method: input.method, materials })
 }
 

@@ -1,0 +1,66 @@
+/**
+ * The heavy computations the API runs off the request thread, as plain data in and out so
+ * they cross a worker-thread boundary: an evaluation, a tolerance band, an STL. The same
+ * function runs in a pool thread (worker.ts) or, without threads, in the calling one.
+ */
+import { buildGeometry, evaluate, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation } from '../../../catalog'
+import { toleranceBand, type ToleranceBand } from '../../../catalog/tolerance'
+
+type Materials = EvaluateOptions['materials']
+
+export type ComputeTask =
+  | { kind: 'evaluate'; familyId: string; params: unknown; options: { method?: string; ranges?: EvaluateOptions['ranges']; materials?: Materials } }
+  | { kind: 'band'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2] }
+  | { kind: 'stl'; familyId: string; params: unknown }
+
+export type ComputeValue = Evaluation | ToleranceBand | Uint8Array
+
+/** A failure as data: the core's own errors keep their class, fields and details. */
+export type ComputeFailure =
+  | { name: 'ValidationError'; issues: ValidationError['issues'] }
+  | { name: 'SolverError'; message: string; details: Record<string, unknown> }
+  | { name: 'UnknownFamilyError'; familyId: string }
+  | { name: 'Error'; message: string; stack?: string }
+
+export type ComputeOutcome = { ok: true; value: ComputeValue } | { ok: false; error: ComputeFailure }
+
+export function runTask(task: ComputeTask): ComputeValue {
+  switch (task.kind) {
+    case 'evaluate':
+      return evaluate(task.familyId, task.params, task.options)
+    case 'band':
+      return toleranceBand(task.familyId, task.params, task.options)
+    case 'stl':
+      return serializeStl(buildGeometry(task.familyId, task.params))
+  }
+}
+
+export function toFailure(err: unknown): ComputeFailure {
+  if (err instanceof ValidationError) return { name: 'ValidationError', issues: err.issues }
+  if (err instanceof SolverError) return { name: 'SolverError', message: err.message, details: err.details }
+  if (err instanceof UnknownFamilyError) return { name: 'UnknownFamilyError', familyId: err.familyId }
+  const e = err instanceof Error ? err : new Error(String(err))
+  return { name: 'Error', message: e.message, stack: e.stack }
+}
+
+export function fromFailure(failure: ComputeFailure): Error {
+  switch (failure.name) {
+    case 'ValidationError': return new ValidationError(failure.issues)
+    case 'SolverError': return new SolverError(failure.message, failure.details)
+    case 'UnknownFamilyError': return new UnknownFamilyError(failure.familyId)
+    default: {
+      const e = new Error(failure.message)
+      if (failure.stack) e.stack = failure.stack
+      return e
+    }
+  }
+}
+
+/** Runs a task and reports its outcome as data (what a pool thread sends back). */
+export function runTaskSafely(task: ComputeTask): ComputeOutcome {
+  try {
+    return { ok: true, value: runTask(task) }
+  } catch (err) {
+    return { ok: false, error: toFailure(err) }
+  }
+}

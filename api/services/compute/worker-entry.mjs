@@ -1,0 +1,8 @@
+// Worker threads do not inherit the parent's TypeScript loader on Node 20, so each compute
+// thread registers tsx itself, then hands piscina the TypeScript body's task function.
+import { register } from 'tsx/esm/api'
+
+register()
+const { default: compute } = await import('./worker.ts')
+
+export default compute
