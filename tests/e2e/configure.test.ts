@@ -210,6 +210,15 @@ describe('configure a module and take it to the printer', () => {
     await page.locator('.n-dialog').getByRole('button', { name: 'Delete' }).click()
     await expect.poll(() => page.locator('tbody tr').count()).toBe(1)
     await page.getByRole('link', { name: 'Copy of Power switch, firmer for gloves' }).waitFor()
+    // a link can be withdrawn without deleting the configuration
+    const copy = page.getByRole('row').filter({ hasText: 'Copy of Power switch' })
+    await copy.getByRole('button', { name: 'Share' }).click()
+    const copyLink = (await copy.locator('.share-link').textContent())!.trim()
+    await copy.getByRole('button', { name: 'Stop sharing' }).click()
+    await copy.getByRole('button', { name: 'Share' }).waitFor()
+    const token = await page.evaluate(() => localStorage.getItem('flexshelf.token'))
+    const res = await fetch(`${server.url}/api/shared/${copyLink.split('/').pop()}`, { headers: { authorization: `Bearer ${token}` } })
+    expect(res.status).toBe(404)
     // the shared link stops working with it
     await page.goto(shareLink)
     await page.getByText(/This configuration is not there/).waitFor({ timeout: 20_000 })
