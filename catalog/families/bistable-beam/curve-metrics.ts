@@ -23,8 +23,8 @@ function crossing(x: number[], f: number[], i: number): number {
   return x[i - 1] + ((0 - f[i - 1]) * (x[i] - x[i - 1])) / (f[i] - f[i - 1])
 }
 
-/** Trapezoidal work ∫ f dx from x[0] to position `to` (inside the curve). */
-function work(x: number[], f: number[], from: number, to: number): number {
+/** Trapezoidal work ∫ f dx from position `from` to position `to` (inside the curve). */
+export function work(x: number[], f: number[], from: number, to: number): number {
   let w = 0
   for (let i = 1; i < x.length; i++) {
     const a = Math.max(from, x[i - 1]), b = Math.min(to, x[i])
@@ -58,4 +58,23 @@ export function snapMetrics(x: number[], f: number[]): SnapMetrics {
   const energyIn = work(x, f, x[0], unstableAt)
   const energyBarrier = bistable ? -work(x, f, unstableAt, secondAt) : 0
   return { peakForce: f[peak], peakAt: x[peak], valleyForce: f[valley], valleyAt: x[valley], unstableAt, secondAt, energyIn, energyBarrier, bistable }
+}
+
+/**
+ * The family's reported metrics from the snap metrics of a curve (shared by the nonlinear-fe
+ * and closed-form evaluations and the table's validation, so all three report alike).
+ */
+export function reportedMetrics(m: SnapMetrics, maxStrain: number, strainLimit: number): Record<string, number | boolean | null> {
+  return {
+    peakForce: m.peakForce,
+    valleyForce: m.valleyForce,
+    unstablePosition: m.valleyForce < 0 ? m.unstableAt : null,
+    secondStablePosition: m.bistable ? m.secondAt : null,
+    energyIn: m.valleyForce < 0 ? m.energyIn : null,
+    energyBarrier: m.bistable ? m.energyBarrier : null,
+    bistable: m.valleyForce < 0,
+    maxStrain,
+    strainLimit,
+    safetyFactor: strainLimit / maxStrain,
+  }
 }

@@ -1,7 +1,7 @@
 import { ValidationError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, MetricValue, ModelInput, ModelOutput } from '../../schema/types'
 import { closedFormForce, closedFormMetrics, closedFormStrain, CRITICAL_Q } from './closed-form'
-import { snapMetrics, type SnapMetrics } from './curve-metrics'
+import { reportedMetrics, snapMetrics, type SnapMetrics } from './curve-metrics'
 import { estimateRigidPeak } from './estimate'
 import { FE_POINTS, solveBistableCurve } from './fe-model'
 import { MIN_SLENDERNESS } from './params'
@@ -98,18 +98,7 @@ export function evaluate(input: ModelInput): ModelOutput {
     m = snapMetrics(x, f)
   }
   const maxStrain = Math.max(...strain)
-  const out: Record<string, MetricValue> = {
-    peakForce: m.peakForce,
-    valleyForce: m.valleyForce,
-    unstablePosition: m.valleyForce < 0 ? m.unstableAt : null,
-    secondStablePosition: m.bistable ? m.secondAt : null,
-    energyIn: m.valleyForce < 0 ? m.energyIn : null,
-    energyBarrier: m.bistable ? m.energyBarrier : null,
-    bistable: m.valleyForce < 0,
-    maxStrain,
-    strainLimit: material.strainLimit,
-    safetyFactor: material.strainLimit / maxStrain,
-  }
+  const out: Record<string, MetricValue> = reportedMetrics(m, maxStrain, material.strainLimit)
   return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings: warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method) }
 }
 

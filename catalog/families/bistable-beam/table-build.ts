@@ -1,64 +1,146 @@
 /**
  * The normalised performance table of the bistable pair, computed with the nonlinear solver.
  * In slender-beam theory the shape of the curve depends only on dimensionless groups:
- *   Q = apexHeight/thickness, η = apexHeight/span (how deep the arch is), and the side-post
- *   length p = postLength/span. Posts act twice: their end rotation (∝ p) and their sideways
- *   give, a cantilever k = 3EI/L_p³ in series with the beam's EA/l, EA/(l·k) = 4p³(span/thickness)²
- *   (REFERENCES.md §1, support compliance) — so with span/thickness = Q/η the three groups
- *   fix the shape. p is spaced quadratically: short posts already change the curve a lot.
+ *   Q = apexHeight/thickness, η = apexHeight/span (how deep the arch is), and the side posts.
+ * Posts act twice: their end rotation (∝ p = postLength/span) and their sideways give, a
+ * cantilever k = 3EI/L_p³ in series with the beam's EA/l, EA/(l·k) = 4p³(span/thickness)²
+ * (REFERENCES.md §1, support compliance). The sideways give is what moves the snap and removes
+ * bistability, so the post axis is w = p·(span/thickness)^(2/3) (EA/(l·k) = 4w³): in w the
+ * places where the curve changes character (the peak's corner, the second position passing
+ * the end of travel, the bistability limit) lie close together for every slenderness, where
+ * in p they spread over a factor of 4 (measured: the limit at w ≈ 1.5–2.3 for span/t 50–200).
  * Forces scale with 2·E·I·h/l³ (two beams), energies with that times h, strain with t·h/l².
  */
 import { solveBistableCurve, type BistableGeometry } from './fe-model'
-import { snapMetrics } from './curve-metrics'
+import { snapMetrics, work } from './curve-metrics'
+import { MAX_POST, MAX_RATIO, MAX_RISE, MIN_RATIO, MIN_SLENDERNESS, params } from './params'
 
-export const TABLE_METRICS = ['peak', 'valley', 'peakAt', 'valleyAt', 'unstableAt', 'secondAt', 'workIn', 'barrier', 'strain'] as const
+export const TABLE_METRICS = ['peak', 'valley', 'unstableAt', 'secondAt', 'workIn', 'barrier', 'strain'] as const
 export type TableMetric = (typeof TABLE_METRICS)[number]
 
 export interface TableAxes {
   q: number[]
   eta: number[]
-  /** p = postLength/span. */
-  p: number[]
+  /** w = (postLength/span)·(span/thickness)^(2/3). */
+  w: number[]
+}
+
+/** Error statistics of one metric over a validation sample (fractions; see ERROR_NORMS). */
+export interface ErrorQuantiles { median: number; p90: number; p99: number; max: number }
+
+/** The table's interpolation error, measured by the generator on held-out direct solves. */
+export interface TableValidation {
+  /** Seed of the sample (a different stream from the tests'). */
+  seed: number
+  /** Direct solves in the sample, and those of them that are bistable (valley < 0) by the solver. */
+  cases: number
+  bistableCases: number
+  /** Over the bistable cases: |table − direct| / norm, per estimate metric key. */
+  bistable: Record<string, ErrorQuantiles>
+  /** Over all cases (monostable ones too), for peakForce and valleyForce. */
+  all: Record<string, ErrorQuantiles>
+  /** Cases where the table's bistable flag differed from the solver's. */
+  flips: number
+  /** Largest |valley|/peak (of the direct solve) among the flips: the band around the limit. */
+  flagBand: number
 }
 
 export interface BistableTable {
   solverVersion: number
   modelVersion: number
   axes: TableAxes
-  /** One flat array per metric, index = (iq·|eta| + ie)·|p| + ip; NaN where the solve failed. */
+  /** One flat array per metric, index = (iq·|eta| + ie)·|w| + iw; NaN where not computed or the solve failed. */
   values: Record<TableMetric, number[]>
+  validation: TableValidation
 }
+
+/**
+ * How each estimate metric's error is normalised: forces by the peak force (a valley of 0.1 N
+ * beside a 5 N peak matters as 2 % of the peak), positions by the apex height, both energies
+ * by the work to snap, the strain by itself.
+ */
+export const ERROR_NORMS = {
+  peakForce: 'peakForce', valleyForce: 'peakForce', unstablePosition: 'apexHeight', secondStablePosition: 'apexHeight',
+  energyIn: 'energyIn', energyBarrier: 'energyIn', maxStrain: 'maxStrain',
+} as const
 
 export function defaultAxes(): TableAxes {
   const q = Array.from({ length: 28 }, (_, i) => 1.5 + 0.5 * i)
   const eta = Array.from({ length: 16 }, (_, i) => 0.002 * 100 ** (i / 15))
-  const p = Array.from({ length: 25 }, (_, i) => 0.5 * (i / 24) ** 2)
-  return { q, eta, p }
+  // dense up to w = 3, where the curve changes character; geometric beyond, where it changes slowly
+  const near = Array.from({ length: 46 }, (_, i) => 3 * (i / 45) ** 1.5)
+  const far = Array.from({ length: 12 }, (_, i) => 3 * 1.24 ** (i + 1))
+  return { q, eta, w: [...near, ...far] }
+}
+
+const range = (key: string) => params.find((p) => p.key === key)!
+
+/**
+ * Whether some valid parameter set has these groups: the family's ranges and cross-field rules
+ * (params.ts) in dimensionless form. With span l, apexHeight h = ηl, thickness t = h/Q and
+ * postLength pl, a span must exist inside every bound at once.
+ */
+export function groupsFeasible(q: number, eta: number, w: number): boolean {
+  const eps = 1e-9
+  if (q < MIN_RATIO - eps || q > MAX_RATIO + eps || eta > MAX_RISE + eps || w < 0) return false
+  const slenderness = q / eta
+  if (slenderness < MIN_SLENDERNESS - eps) return false
+  const p = w / slenderness ** (2 / 3)
+  if (p > MAX_POST + eps) return false
+  const span = range('span'), apex = range('apexHeight'), thick = range('thickness'), post = range('postLength')
+  // bounds on the span from each parameter's range
+  const lo = Math.max(span.min, apex.min / eta, (thick.min * q) / eta)
+  const hi = Math.min(span.max, apex.max / eta, (thick.max * q) / eta, p > 0 ? post.max / p : Infinity)
+  return lo <= hi * (1 + eps)
 }
 
 /** The geometry of a table node, for a reference span of 100 mm and E = 1000 MPa. */
-export function nodeGeometry(q: number, eta: number, p: number): BistableGeometry {
+export function nodeGeometry(q: number, eta: number, w: number): BistableGeometry {
   const span = 100
   const apexHeight = eta * span
   const thickness = apexHeight / q
-  return { span, apexHeight, thickness, depth: 1, postLength: p * span, modulus: 1000 }
+  return { span, apexHeight, thickness, depth: 1, postLength: (w / (q / eta) ** (2 / 3)) * span, modulus: 1000 }
 }
 
-/** Normalised metrics of one node (NaN where the solver could not follow the path). */
-export function nodeMetrics(q: number, eta: number, p: number): Record<TableMetric, number> {
-  const g = nodeGeometry(q, eta, p)
+/**
+ * Normalised metrics of one node (NaN where the solver could not follow the path). The energy
+ * barrier is extended continuously past the end of travel (work from the unstable position to
+ * the end when the second position lies beyond it), so that it interpolates without a jump;
+ * the estimate reports it only where the second position is reached.
+ */
+export function nodeMetrics(q: number, eta: number, w: number): Record<TableMetric, number> {
+  const g = nodeGeometry(q, eta, w)
   const scale = (2 * g.modulus * ((g.depth * g.thickness ** 3) / 12) * g.apexHeight) / g.span ** 3
   const h = g.apexHeight
   try {
     const fe = solveBistableCurve(g)
-    const m = snapMetrics(fe.displacement, fe.force)
+    const x = fe.displacement, f = fe.force
+    const m = snapMetrics(x, f)
+    const barrier = m.bistable ? m.energyBarrier : m.valleyForce < 0 ? -work(x, f, m.unstableAt, x[x.length - 1]) : 0
     return {
       peak: m.peakForce / scale, valley: m.valleyForce / scale,
-      peakAt: m.peakAt / h, valleyAt: m.valleyAt / h, unstableAt: m.unstableAt / h, secondAt: m.secondAt / h,
-      workIn: m.energyIn / (scale * h), barrier: m.energyBarrier / (scale * h),
+      unstableAt: m.unstableAt / h, secondAt: m.secondAt / h,
+      workIn: m.energyIn / (scale * h), barrier: barrier / (scale * h),
       strain: Math.max(...fe.strain) / ((g.thickness * h) / g.span ** 2),
     }
   } catch {
     return Object.fromEntries(TABLE_METRICS.map((k) => [k, NaN])) as Record<TableMetric, number>
   }
+}
+
+/**
+ * Whether a node is needed: some valid parameter set lies in a cell whose interpolation uses it
+ * (cubic along Q and η reaches two nodes each way, linear along w one). Checked on a sample of
+ * points spread over those cells; nodes far outside the valid groups are not solved.
+ */
+export function nodeNeeded(axes: TableAxes, iq: number, ie: number, iw: number): boolean {
+  const span = (a: number[], i: number, reach: number): [number, number] => [a[Math.max(0, i - reach)], a[Math.min(a.length - 1, i + reach)]]
+  const [q0, q1] = span(axes.q, iq, 2), [e0, e1] = span(axes.eta, ie, 2), [w0, w1] = span(axes.w, iw, 1)
+  // 8 points a cell along Q and η, 4 along w
+  const n = 8, nw = 8
+  for (let a = 0; a <= n; a++) for (let b = 0; b <= n; b++) for (let c = 0; c <= nw; c++) {
+    const q = q0 + ((q1 - q0) * a) / n, eta = e0 * (e1 / e0) ** (b / n), w = w0 + ((w1 - w0) * c) / nw
+    if (groupsFeasible(q, eta, w)) return true
+  }
+  return false
 }

@@ -1,20 +1,51 @@
 /**
- * Trilinear interpolation in the normalised table (see table-build.ts for its groups); no
- * allocation per call beyond the returned object, so search can scan millions of candidates.
+ * Interpolation in the normalised table (see table-build.ts for its groups): Catmull–Rom cubic
+ * along Q and ln η, where the metrics are smooth (measured on direct solves: it cuts the 90th
+ * percentile of the error along η tenfold against linear), and linear along the post axis w,
+ * where the metrics have corners (the peak's corner meeting a limit point, the second position
+ * passing the end of travel) that a cubic would overshoot. Quadratic in the edge cells of Q and
+ * η; trilinear where a cubic's outer node was not computed. No allocation per call, so search
+ * can scan millions of candidates.
  */
 import { TABLE } from './table-data'
-import { TABLE_METRICS, type BistableTable, type TableMetric } from './table-build'
+import type { MetricValue } from '../../schema/types'
+import { TABLE_METRICS, type BistableTable } from './table-build'
 
-/** The dimensionless groups of a parameter set. */
-export function tableCoordinates(span: number, apexHeight: number, thickness: number, postLength: number): { q: number; eta: number; p: number } {
-  return { q: apexHeight / thickness, eta: apexHeight / span, p: postLength / span }
+const METRICS = TABLE_METRICS.length
+
+/** The dimensionless groups of a parameter set: Q, η and the post group w (table-build.ts). */
+export function tableCoordinates(span: number, apexHeight: number, thickness: number, postLength: number): { q: number; eta: number; w: number } {
+  const slenderness = span / thickness
+  return { q: apexHeight / thickness, eta: apexHeight / span, w: (postLength / span) * Math.cbrt(slenderness * slenderness) }
 }
+
+/** A table laid out for lookup: ln η axis, values node-major (all metrics of a node together). */
+interface Prepared {
+  source: BistableTable
+  q: Float64Array
+  logEta: Float64Array
+  w: Float64Array
+  values: Float64Array
+}
+
+function prepare(table: BistableTable): Prepared {
+  const nodes = table.values.peak.length
+  const values = new Float64Array(nodes * METRICS)
+  for (let m = 0; m < METRICS; m++) {
+    const col = table.values[TABLE_METRICS[m]]
+    for (let i = 0; i < nodes; i++) values[i * METRICS + m] = col[i]
+  }
+  return { source: table, q: Float64Array.from(table.axes.q), logEta: Float64Array.from(table.axes.eta, Math.log), w: Float64Array.from(table.axes.w), values }
+}
+
+// prepared on first use, so that loading this module never depends on the data's contents
+let prepared: Prepared | null = null
 
 const cell = new Int32Array(3)
 const frac = new Float64Array(3)
 
 /** Finds the cell of v on axis k (binary search); false outside the axis. */
-function locate(axis: number[], v: number, k: number): boolean {
+function locate(axis: Float64Array, v: number, k: number): boolean {
   const n = axis.length
   if (!(v >= axis[0] - 1e-12 && v <= axis[n - 1] + 1e-12)) return false
   let lo = 0, hi = n - 1
@@ -23,35 +54,115 @@ function locate(axis: number[], v: number, k: number): boolean {
     if (v >= axis[mid]) lo = mid
     else hi = mid
   }
-  const w = (v - axis[lo]) / (axis[lo + 1] - axis[lo])
+  const t = (v - axis[lo]) / (axis[lo + 1] - axis[lo])
   cell[k] = lo
-  frac[k] = w < 0 ? 0 : w > 1 ? 1 : w
+  frac[k] = t < 0 ? 0 : t > 1 ? 1 : t
   return true
 }
 
-const weights = new Float64Array(8)
-const corners = new Int32Array(8)
+/**
+ * Weights of nodes lo−1 … lo+2 at fraction t of cell lo on an evenly spaced axis of n nodes
+ * (written to w[o … o+3]): Catmull–Rom inside, the quadratic through the three nearest nodes
+ * in the first and last cells, linear when the axis has two nodes.
+ */
+function cubicWeights(lo: number, n: number, t: number, w: Float64Array, o: number): void {
+  const t2 = t * t, t3 = t2 * t
+  if (n < 3) {
+    w[o] = 0; w[o + 1] = 1 - t; w[o + 2] = t; w[o + 3] = 0
+  } else if (lo === 0) {
+    w[o] = 0; w[o + 1] = 0.5 * (t - 1) * (t - 2); w[o + 2] = -t * (t - 2); w[o + 3] = 0.5 * t * (t - 1)
+  } else if (lo + 2 > n - 1) {
+    w[o] = 0.5 * t * (t - 1); w[o + 1] = (1 - t) * (1 + t); w[o + 2] = 0.5 * t * (t + 1); w[o + 3] = 0
+  } else {
+    w[o] = 0.5 * (-t3 + 2 * t2 - t); w[o + 1] = 0.5 * (3 * t3 - 5 * t2 + 2); w[o + 2] = 0.5 * (-3 * t3 + 4 * t2 + t); w[o + 3] = 0.5 * (t3 - t2)
+  }
+}
+
+const wq = new Float64Array(4)
+const we = new Float64Array(4)
+const acc = new Float64Array(METRICS)
 
 /**
  * Fills `out` (one slot per TABLE_METRICS entry) with interpolated normalised metrics;
- * returns false outside the table or where a surrounding node failed.
+ * returns false outside the table or where a surrounding node was not computed or failed.
  */
-export function interpolateTable(q: number, eta: number, p: number, out: Float64Array, table: BistableTable = TABLE): boolean {
-  const a = table.axes
-  if (!locate(a.q, q, 0) || !locate(a.eta, eta, 1) || !locate(a.p, p, 2)) return false
-  const ne = a.eta.length, np = a.p.length
-  let k = 0
-  for (let dq = 0; dq < 2; dq++) for (let de = 0; de < 2; de++) for (let dp = 0; dp < 2; dp++) {
-    corners[k] = ((cell[0] + dq) * ne + cell[1] + de) * np + cell[2] + dp
-    weights[k] = (dq ? frac[0] : 1 - frac[0]) * (de ? frac[1] : 1 - frac[1]) * (dp ? frac[2] : 1 - frac[2])
-    k++
+export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = TABLE): boolean {
+  if (!prepared || prepared.source !== table) prepared = prepare(table)
+  const t = prepared
+  if (!(eta > 0) || !locate(t.q, q, 0) || !locate(t.logEta, Math.log(eta), 1) || !locate(t.w, w, 2)) return false
+  const nq = t.q.length, ne = t.logEta.length, nw = t.w.length
+  const iq = cell[0], ie = cell[1], iw = cell[2], fw = frac[2]
+  cubicWeights(iq, nq, frac[0], wq, 0)
+  cubicWeights(ie, ne, frac[1], we, 0)
+  const v = t.values
+  for (let m = 0; m < METRICS; m++) acc[m] = 0
+  for (let a = 0; a < 4; a++) {
+    const wa = wq[a]
+    if (wa === 0) continue
+    const jq = iq - 1 + a
+    for (let b = 0; b < 4; b++) {
+      const wab = wa * we[b]
+      if (wab === 0) continue
+      const base = ((jq * ne + ie - 1 + b) * nw + iw) * METRICS
+      const w0 = wab * (1 - fw), w1 = wab * fw
+      // a zero weight must not multiply a node that was not computed (NaN)
+      if (w1 === 0) for (let m = 0; m < METRICS; m++) acc[m] += w0 * v[base + m]
+      else if (w0 === 0) for (let m = 0; m < METRICS; m++) acc[m] += w1 * v[base + METRICS + m]
+      else for (let m = 0; m < METRICS; m++) acc[m] += w0 * v[base + m] + w1 * v[base + METRICS + m]
+    }
   }
-  for (let m = 0; m < TABLE_METRICS.length; m++) {
-    const col = table.values[TABLE_METRICS[m] as TableMetric]
-    let s = 0
-    for (let c = 0; c < 8; c++) s += weights[c] * col[corners[c]]
-    if (!Number.isFinite(s)) return false
-    out[m] = s
+  let finite = true
+  for (let m = 0; m < METRICS; m++) if (!Number.isFinite(acc[m])) { finite = false; break }
+  if (finite) {
+    for (let m = 0; m < METRICS; m++) out[m] = acc[m]
+    return true
+  }
+  // a cubic's outer node is missing (the edge of the valid groups): trilinear on the cell
+  const fq = frac[0], fe = frac[1]
+  for (let m = 0; m < METRICS; m++) acc[m] = 0
+  for (let a = 0; a < 2; a++) for (let b = 0; b < 2; b++) {
+    const wab = (a ? fq : 1 - fq) * (b ? fe : 1 - fe)
+    const base = (((iq + a) * ne + ie + b) * nw + iw) * METRICS
+    if (wab === 0) continue
+    for (let m = 0; m < METRICS; m++) acc[m] += wab * (fw === 1 ? v[base + METRICS + m] : fw === 0 ? v[base + m] : (1 - fw) * v[base + m] + fw * v[base + METRICS + m])
+  }
+  for (let m = 0; m < METRICS; m++) {
+    if (!Number.isFinite(acc[m])) return false
+    out[m] = acc[m]
   }
   return true
+}
+
+const slot = Object.fromEntries(TABLE_METRICS.map((k, i) => [k, i])) as Record<(typeof TABLE_METRICS)[number], number>
+const scratch = new Float64Array(METRICS)
+
+/**
+ * The family's metrics (keys and units of the nonlinear-fe evaluation) from `table`, or null
+ * outside it. Monostable parts get no unstable position or energies, as the model reports them.
+ */
+export function estimateFromTable(
+  table: BistableTable,
+  p: { span: number; apexHeight: number; thickness: number; depth: number; postLength: number },
+  material: { modulus: number; strainLimit: number },
+): Record<string, MetricValue> | null {
+  const c = tableCoordinates(p.span, p.apexHeight, p.thickness, p.postLength)
+  if (!interpolateTable(c.q, c.eta, c.w, scratch, table)) return null
+  const scale = (2 * material.modulus * ((p.depth * p.thickness ** 3) / 12) * p.apexHeight) / p.span ** 3
+  const h = p.apexHeight
+  const valley = scratch[slot.valley] * scale
+  const bistable = valley < 0
+  const reachesSecond = bistable && scratch[slot.secondAt] < 2 - 1e-9
+  const maxStrain = scratch[slot.strain] * ((p.thickness * h) / p.span ** 2)
+  return {
+    peakForce: scratch[slot.peak] * scale,
+    valleyForce: valley,
+    unstablePosition: bistable ? scratch[slot.unstableAt] * h : null,
+    secondStablePosition: reachesSecond ? scratch[slot.secondAt] * h : null,
+    energyIn: bistable ? scratch[slot.workIn] * scale * h : null,
+    energyBarrier: reachesSecond ? scratch[slot.barrier] * scale * h : null,
+    bistable,
+    maxStrain,
+    strainLimit: material.strainLimit,
+    safetyFactor: material.strainLimit / maxStrain,
+  }
 }
