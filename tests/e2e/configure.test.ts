@@ -192,6 +192,15 @@ describe('configure a module and take it to the printer', () => {
     expect(await page.locator('#window-peakForce-max').isDisabled()).toBe(true)
     await bothThemes('configure-shared')
 
+    // the shared data sheet comes from the share link's own route and names the configuration
+    await page.getByRole('link', { name: 'Data sheet' }).click()
+    await page.waitForURL(/\/datasheet\?shared=/)
+    await page.locator('article.paper').getByText('Power switch, firmer for gloves').waitFor({ timeout: 20_000 })
+    expect(await page.locator('article.paper').textContent()).toMatch(/Beam thickness\s*0\.8 mm/)
+    await page.getByRole('link', { name: '← Back to the configuration' }).click()
+    await page.waitForURL(/\/shared\//)
+    await page.getByRole('button', { name: 'Copy to my configurations' }).waitFor({ timeout: 20_000 })
+
     // a colleague may keep a copy of their own
     await page.getByRole('button', { name: 'Copy to my configurations' }).click()
     expect(await page.getByLabel('Name').inputValue()).toBe('Copy of Power switch, firmer for gloves')
