@@ -12,6 +12,7 @@ const SWITCH = 'Power switch, field node shell S1'
 const SPRING = 'Status button return spring, gateway G2'
 const NEW_ENTRY = 'Probe button spring, soil probe P3'
 const PRINTER = 'Bench printer B2'
+const CHANGES = 'Narrow the pitch to at most 4 mm: wider pitches do not fit the P3 button well.'
 
 describe('curation in the browser', () => {
   let server: RunningServer
@@ -224,7 +225,7 @@ describe('curation in the browser', () => {
     await bothThemes(page, 'propose-change-in-review')
   })
 
-  it('the librarian compares the change with the current revision and releases both proposals; the new entry is on the shelf', async () => {
+  it('the librarian compares the change with the current revision and releases it, then sends the new entry back for changes', async () => {
     const { page } = browser
     await switchUser(page, 'librarian@demo.flexshelf.test')
     await page.goto(`${server.url}/review`)
@@ -261,14 +262,52 @@ describe('curation in the browser', () => {
     await page.getByRole('button', { name: 'Request changes' }).click()
     await page.locator('.n-dialog').getByRole('button', { name: 'Request changes' }).click()
     await page.getByText('Say what should change').waitFor()
-    await page.locator('.n-dialog').getByRole('button', { name: 'Cancel' }).click()
+    await page.locator('.n-dialog #review-dialog-text').fill(CHANGES)
+    await page.locator('.n-dialog').getByRole('button', { name: 'Request changes' }).click()
+    await page.getByText('Sent back to the contributor.').waitFor()
+    await page.getByText('It is back with its contributor as a draft').waitFor()
+    expect(await page.locator('.curation-comments').innerText()).toContain(CHANGES)
+  })
+
+  it("the contributor reads the librarian's request, narrows the range and submits again", async () => {
+    const { page } = browser
+    await switchUser(page, 'contributor@demo.flexshelf.test')
+    await page.goto(`${server.url}/proposals`)
+    const row = page.getByRole('row').filter({ hasText: NEW_ENTRY })
+    await row.getByText('Changes requested').waitFor()
+    expect(await row.innerText()).toContain(CHANGES)
+    await bothThemes(page, 'my-proposals-changes-requested')
+    await row.getByRole('link', { name: NEW_ENTRY }).click()
+    await page.waitForURL(/\/proposals\/\d+$/)
+    await page.locator('.notice').filter({ hasText: 'Changes requested' }).getByText(CHANGES).waitFor()
+    const highest = page.getByLabel(/Pitch, highest allowed/)
+    await highest.fill('4')
+    await highest.blur()
+    await page.getByText('Unsaved changes').waitFor()
+    await bothThemes(page, 'propose-changes-requested')
+    // submitting saves the edit first
+    await page.getByRole('button', { name: 'Submit for review' }).click()
+    await page.locator('.n-dialog').getByRole('button', { name: 'Submit for review' }).click()
+    await page.getByText('Submitted for review.').waitFor()
+    const id = Number(/\/proposals\/(\d+)$/.exec(page.url())![1])
+    const { entry } = await api<{ entry: { status: string; ranges: Record<string, [number, number]> } }>(page, `/api/entries/${id}`)
+    expect(entry.status).toBe('in_review')
+    expect(entry.ranges.pitch).toEqual([0.8, 4])
+  })
+
+  it('the librarian releases the new entry; it is on the shelf, and retiring it says what that means', async () => {
+    const { page } = browser
+    await switchUser(page, 'librarian@demo.flexshelf.test')
+    await page.goto(`${server.url}/review`)
+    await page.getByRole('row').filter({ hasText: NEW_ENTRY }).getByRole('link', { name: NEW_ENTRY }).click()
+    await page.waitForURL(/\/review\/\d+$/)
+    await page.getByText('Computed curve at the defaults').waitFor()
     await page.getByRole('button', { name: 'Release' }).click()
     await page.locator('.n-dialog').getByRole('button', { name: 'Release' }).click()
     await page.waitForURL(/\/entries\/\d+$/)
     await page.goto(`${server.url}/`)
     await page.getByRole('row').filter({ hasText: NEW_ENTRY }).filter({ hasText: 'Released' }).waitFor()
 
-    // retiring says what it means before it happens
     await openEntry(page, NEW_ENTRY)
     await page.getByRole('button', { name: 'Retire' }).click()
     const confirm = page.locator('.n-dialog')
@@ -290,6 +329,7 @@ describe('curation in the browser', () => {
     expect(text).toContain(`your test report on "${SWITCH}" was accepted`)
     expect(text).toContain(`"${NEW_ENTRY}"`)
     expect(text).toMatch(/was released/)
+    expect(text).toContain(`changes requested on "${NEW_ENTRY}"`)
     expect(text).toContain('librarian@demo.flexshelf.test')
     expect(text).toContain('contributor@demo.flexshelf.test')
     // newest first: the last release is at the top

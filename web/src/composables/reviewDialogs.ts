@@ -47,6 +47,7 @@ export function confirmWithText(dialog: Dialog, o: TextConfirmOptions): void {
         type: 'textarea',
         autosize: { minRows: 3, maxRows: 10 },
         maxlength: 5000,
+        placeholder: '',
         status: problem.value ? 'error' : undefined,
         inputProps: { id: 'review-dialog-text' },
         'onUpdate:value': (v: string) => { text.value = v; if (v.trim()) problem.value = '' },
