@@ -50,11 +50,19 @@ describe('configure a module and take it to the printer', () => {
     await page.waitForURL(`${server.url}/`)
     await page.getByRole('row').filter({ hasText: 'Power switch, field node shell S1' }).click()
     await page.waitForURL(/\/entries\/\d+$/)
+    // a snap-over force window set on the entry page travels with the parameters
+    await page.locator('#window-min').fill('3')
+    await page.locator('#window-max').fill('5')
+    await page.locator('#window-max').blur()
     await page.getByRole('link', { name: 'Configure and download' }).click()
     await page.waitForURL(/\/entries\/\d+\/configure\?params=/)
     await page.getByRole('heading', { name: 'Power switch, field node shell S1' }).waitFor()
-    // without a window there is no verdict yet, only the strain
-    await page.getByText('Set a force window to see whether this part is inside it').waitFor()
+    expect(await page.locator('#window-peakForce-min').inputValue()).toBe('3')
+    expect(await page.locator('#window-peakForce-max').inputValue()).toBe('5')
+    // without any window there is no verdict, only the strain
+    await page.locator('#window-peakForce-min').fill('')
+    await page.locator('#window-peakForce-max').fill('')
+    await page.getByText('Set a force window to see whether this part is inside it').waitFor({ timeout: 20_000 })
 
     // snaps over at 3–5 N and holds with at least 0.5 N
     await page.locator('#window-peakForce-min').fill('3')

@@ -112,3 +112,15 @@ export function describeWindow(kind: WindowKind, window: ForceWindow | null): st
   }
   return parts.length ? parts.join(' · ') : 'No force window set'
 }
+
+/**
+ * The entry page's one-line window (a range on the key metric) as a window of the kind, when
+ * the key metric is one the window speaks of (peak force, stiffness, …); null otherwise.
+ */
+export function windowFromKeyMetric(kind: WindowKind, metricKey: string | null | undefined, range: { min: number | null; max: number | null }): ForceWindow | null {
+  const q = windowQuantities[kind].find((x) => x.key === metricKey && x.metric === metricKey && x.sign === 1)
+  if (!q) return null
+  const form = emptyWindowForm(kind)
+  form[q.key] = { min: range.min, max: range.max }
+  return windowFromForm(kind, form)
+}

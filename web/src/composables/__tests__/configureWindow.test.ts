@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { parseWindow } from '@catalog/window/schema'
-import { describeWindow, emptyWindowForm, windowFromForm, windowGroups, windowToForm } from '../configureWindow'
+import { describeWindow, emptyWindowForm, windowFromForm, windowFromKeyMetric, windowGroups, windowToForm } from '../configureWindow'
 
 describe('window form by kind', () => {
   it('bistable: a peak-force range, a required holding force and a travel limit, labelled from the catalog', () => {
@@ -43,5 +43,17 @@ describe('window form by kind', () => {
   it('describes the window in words', () => {
     expect(describeWindow('bistable', { kind: 'bistable', peakForce: { min: 3, max: 5 }, holdingForce: { min: 0.5 } })).toBe('Peak force 3–5 N · Holding force at least 0.5 N')
     expect(describeWindow('spring', null)).toBe('No force window set')
+  })
+})
+
+describe('window carried over from the entry page', () => {
+  it('turns a range on the key metric into a window of the kind', () => {
+    expect(windowFromKeyMetric('bistable', 'peakForce', { min: 3, max: null })).toEqual({ kind: 'bistable', peakForce: { min: 3 } })
+    expect(windowFromKeyMetric('hinge', 'rotationalStiffness', { min: 90, max: 130 })).toEqual({ kind: 'hinge', rotationalStiffness: { min: 90, max: 130 } })
+  })
+
+  it('gives nothing for an empty range or a metric the window does not speak of', () => {
+    expect(windowFromKeyMetric('bistable', 'peakForce', { min: null, max: null })).toBeNull()
+    expect(windowFromKeyMetric('latch', 'deflectionForce', { min: 1, max: 2 })).toBeNull()
   })
 })
