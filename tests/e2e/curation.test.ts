@@ -124,6 +124,10 @@ describe('curation in the browser', () => {
     await bothThemes(page, 'upload-refused', { viewport: true })
 
     await modal.locator('.csv-upload input[type=file]').setInputFiles(good)
+    // a photo of the part: a 1 × 1 px PNG is enough to travel with the report
+    const photo = join(files, 'part.png')
+    writeFileSync(photo, Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64'))
+    await modal.locator('.photo-upload input[type=file]').setInputFiles(photo)
     await modal.locator('.report-csv-preview').getByText(`${rows.length} data rows`).waitFor()
     // the columns were detected from the header
     expect(await modal.locator('.dcol').innerText()).toContain('Displacement (mm)')
@@ -165,6 +169,12 @@ describe('curation in the browser', () => {
     const entryId = Number(/\/entries\/(\d+)/.exec(page.url())![1])
     const { entry } = await api<{ entry: { reports: Array<{ id: number; status: string }> } }>(page, `/api/entries/${entryId}`)
     expect(entry.reports.find((r) => r.id === reportId)?.status).toBe('accepted')
+
+    // the photo is fetched with the session's token and shown in place
+    await card.getByRole('button', { name: 'Photo' }).click()
+    await page.getByRole('img', { name: /Photo of the printed part/ }).waitFor()
+    await page.locator('.n-card-header__close').last().click()
+    await page.getByRole('img', { name: /Photo of the printed part/ }).waitFor({ state: 'detached' })
 
     await card.getByRole('button', { name: `Adopt as calibrated material for ${PRINTER}` }).click()
     await page.locator('.n-dialog').getByRole('button', { name: 'Adopt' }).click()
