@@ -3,12 +3,20 @@
  * tolerance band: nominal first (a band contains its nominal point, so a nominal outside the
  * window rules the candidate out at once), then the four corners (walls ± dt together,
  * modulus × (1 ± f)), clamped to the model's ranges as catalog/tolerance does.
+ *
+ * Search judges millions of candidates, so `CandidateJudge` does it on raw numbers: the
+ * estimator writes into a reused typed array, the window is scored on those slots, and the
+ * modulus corners come from the thickness corners by scaling (every E-dependent metric of
+ * the dedicated estimators is proportional to E, see EstimateLayout): three estimates per
+ * candidate instead of five, and no object per candidate. The records of `CandidateScore` are
+ * built only for the few candidates the engine keeps. An estimator without a raw-number form
+ * is judged on records by `scoreRecords`, as before.
  */
 import { MODULUS_RANGE } from '../tolerance'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
-import { scoreBand, type CompiledWindow } from '../window'
+import { MARGIN_LIMIT, scoreBand, type CompiledWindow } from '../window'
 import type { ForceWindow, ManufacturingTolerance } from '../window/schema'
-import type { Estimate, FastEstimator } from './estimators'
+import type { Estimate, EstimateLayout, FastEstimator, FillFn } from './estimators'
 
 export interface CandidateContext {
   family: FamilyDefinition
@@ -85,7 +93,8 @@ function judged(ctx: CandidateContext, nominal: Estimate, low: Record<string, Me
   return { ok: windowOk && strainOk, reason, windowMargin: score.margin, strainMargin, footprintMargin: fpMargin, objective, nominal, low, high, banded }
 }
 
-export function scoreCandidate(ctx: CandidateContext, params: Record<string, number>, keys: string[]): CandidateScore {
+/** Judged on records, every corner estimated: the path of estimators without a raw-number form. */
+export function scoreRecords(ctx: CandidateContext, params: Record<string, number>, keys: string[]): CandidateScore {
   const rules = ctx.family.rules
   for (let i = 0; i < rules.length; i++) if (rules[i].check(params)) return rejected('rules', -Infinity, null)
   let fpMargin: number | null = null
@@ -134,4 +143,299 @@ function footprintReason(footprint: ForceWindow['footprint'], env: { x: number; 
   if (!footprint || footprint.length === undefined) return 'footprint.width'
   if (footprint.width === undefined) return 'footprint.length'
   return Math.max(env.x, env.y) > footprint.length ? 'footprint.length' : 'footprint.width'
+}
+
+/** Judges a candidate as search does; see CandidateJudge for repeated use. */
+export function scoreCandidate(ctx: CandidateContext, params: Record<string, number>, keys: string[]): CandidateScore {
+  return judgeFor(ctx, keys).score(params)
+}
+
+const judges = new WeakMap<CandidateContext, { keys: string[]; judge: CandidateJudge }>()
+function judgeFor(ctx: CandidateContext, keys: string[]): CandidateJudge {
+  const held = judges.get(ctx)
+  if (held && held.keys.length === keys.length && held.keys.every((k, i) => k === keys[i])) return held.judge
+  const judge = new CandidateJudge(ctx, keys)
+  judges.set(ctx, { keys: [...keys], judge })
+  return judge
+}
+
+/** Where judging stopped: the rules, the footprint, the estimate, the nominal verdict, the band. */
+const Stage = { Rules: 0, Footprint: 1, Model: 2, Nominal: 3, Band: 4 } as const
+type Stage = (typeof Stage)[keyof typeof Stage]
+
+/**
+ * Judges candidates of one context repeatedly. `judge(params)` leaves the verdict in the
+ * public fields (ok, reason, margins, objective) and allocates nothing on the raw-number path;
+ * `score(params)` returns the full CandidateScore (it judges again, so pass the same params
+ * to get the score of the candidate just judged).
+ */
+export class CandidateJudge {
+  ok = false
+  reason: string | null = null
+  windowMargin = -Infinity
+  strainMargin: number | null = null
+  footprintMargin: number | null = null
+  objective = -Infinity
+  banded = false
+  /** The envelope of the last candidate when the window has a footprint (else NaN). */
+  envelopeX = NaN
+  envelopeY = NaN
+  envelopeZ = NaN
+  private stage: Stage = Stage.Rules
+
+  private readonly fill: FillFn | null
+  private readonly layout: EstimateLayout | null
+  /** Per judged key: its slot in the layout, or −1 when the estimator does not report it. */
+  private readonly slotOf: Int32Array
+  private readonly scalesWithModulus: Uint8Array
+  private readonly booleanKey: Uint8Array
+  /** Per judged key: 1 when the estimator reports it and its emptiness does not change with the walls. */
+  private readonly emptyFixed: Uint8Array
+  /** Scoring an optimistic bound (see bound()) rather than a verdict. */
+  private optimistic = false
+  private readonly nominal: Float64Array
+  private readonly corner: Float64Array
+  private readonly low: Float64Array
+  private readonly high: Float64Array
+  /** Per bound of the window: index into the judged keys. */
+  private readonly boundKey: Int32Array
+  private readonly secondKey: number
+  private readonly bistableKey: number
+  private readonly safetyKey: number
+  private readonly shifted: Record<string, number> = {}
+  private readonly thicknessSigns: readonly number[]
+  private readonly modulusScales: readonly number[]
+
+  constructor(readonly ctx: CandidateContext, readonly keys: string[]) {
+    this.fill = ctx.estimator.fill ?? null
+    this.layout = ctx.estimator.layout ?? null
+    const n = keys.length
+    this.slotOf = Int32Array.from(keys, (k) => (this.layout ? this.layout.keys.indexOf(k) : -1))
+    this.scalesWithModulus = Uint8Array.from(this.slotOf, (s) => (s >= 0 && this.layout!.modulusPower[s] === 1 ? 1 : 0))
+    this.booleanKey = Uint8Array.from(this.slotOf, (s) => (s >= 0 && this.layout!.booleans[s] ? 1 : 0))
+    this.emptyFixed = Uint8Array.from(this.slotOf, (s) => (s >= 0 && this.layout!.emptyFixed[s] ? 1 : 0))
+    this.nominal = new Float64Array(this.layout?.keys.length ?? 0)
+    this.corner = new Float64Array(this.layout?.keys.length ?? 0)
+    this.low = new Float64Array(n)
+    this.high = new Float64Array(n)
+    const keyIndex = (k: string) => {
+      const i = keys.indexOf(k)
+      if (i < 0) throw new Error(`search judges the window metric ${k} but it is not among the judged keys`)
+      return i
+    }
+    this.boundKey = Int32Array.from(ctx.compiled.bounds, (b) => keyIndex(b.metric))
+    this.secondKey = ctx.compiled.needsSecondPosition ? keyIndex('secondStablePosition') : -1
+    this.bistableKey = keys.indexOf('bistable')
+    this.safetyKey = keys.indexOf('safetyFactor')
+    const { thickness: dt, modulus: dE } = ctx.tolerance
+    this.thicknessSigns = dt > 0 && ctx.walls.length ? SIGNS : ZERO
+    // the corner moduli clamped as catalog/tolerance clamps them, as factors on the nominal
+    this.modulusScales = dE > 0 ? SIGNS.map((es) => Math.min(MODULUS_RANGE[1], Math.max(MODULUS_RANGE[0], ctx.modulus * (1 + es * dE))) / ctx.modulus) : []
+  }
+
+  /** Judges one candidate; the verdict is left in the fields. */
+  judge(params: Record<string, number>): boolean {
+    const ctx = this.ctx
+    if (!this.fill) return this.take(scoreRecords(ctx, params, this.keys))
+    const rules = ctx.family.rules
+    for (let i = 0; i < rules.length; i++) if (rules[i].check(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
+    let fpMargin: number | null = null
+    if (ctx.footprint) {
+      const env = ctx.family.envelope(params)
+      this.envelopeX = env.x
+      this.envelopeY = env.y
+      this.envelopeZ = env.z
+      fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
+      if (fpMargin !== null && fpMargin < 0) return this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
+    }
+    if (!this.estimate(params, this.nominal)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+    const { low, high, slotOf, nominal } = this
+    for (let k = 0; k < slotOf.length; k++) {
+      const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN
+      low[k] = v
+      high[k] = v
+    }
+    // The band contains its nominal point: a nominal outside the window settles it.
+    this.verdict(fpMargin, false)
+    if (!this.ok) { this.stage = Stage.Nominal; return false }
+
+    const scales = this.modulusScales
+    for (const ts of this.thicknessSigns) {
+      let values = nominal
+      if (ts !== 0) {
+        const shifted = this.shifted
+        for (const key in params) shifted[key] = params[key]
+        const dt = ctx.tolerance.thickness
+        for (const w of ctx.walls) shifted[w.key] = Math.min(w.max, Math.max(w.min, params[w.key] + ts * dt))
+        if (!this.estimate(shifted, this.corner)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+        values = this.corner
+      }
+      // corners (ts, ±dE); at ts = 0 only the modulus corners, the nominal being folded already
+      if (scales.length) for (const s of scales) this.foldCorner(values, s)
+      else if (ts !== 0) this.foldCorner(values, 1)
+    }
+    this.verdict(fpMargin, true)
+    this.stage = Stage.Band
+    return this.ok
+  }
+
+  /**
+   * An upper bound on the verdict from the nominal estimate alone, the rules unchecked: the
+   * fields then hold the best the candidate could get — `ok` false only when it certainly
+   * fails, `objective`, `windowMargin` and the safety factor no lower than judge() would give.
+   * That holds because the band contains the nominal point (its margins and safety factor can
+   * only be smaller), a failed rule or corner only makes the verdict worse, and where a band
+   * could turn empty where the nominal is not (an unbounded minimum, or an empty safety factor,
+   * for metrics whose emptiness changes with the walls) the bound assumes the best.
+   * Returns `ok`. Estimators without a raw-number form give no bound (objective +∞).
+   */
+  bound(params: Record<string, number>): boolean {
+    const ctx = this.ctx
+    if (!this.fill) {
+      this.ok = true
+      this.objective = Infinity
+      this.windowMargin = Infinity
+      this.strainMargin = null
+      return true
+    }
+    let fpMargin: number | null = null
+    if (ctx.footprint) {
+      const env = ctx.family.envelope(params)
+      this.envelopeX = env.x
+      this.envelopeY = env.y
+      this.envelopeZ = env.z
+      fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
+      if (fpMargin !== null && fpMargin < 0) return this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
+    }
+    if (!this.estimate(params, this.nominal)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+    const { low, high, slotOf, nominal } = this
+    for (let k = 0; k < slotOf.length; k++) {
+      const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN
+      low[k] = v
+      high[k] = v
+    }
+    this.optimistic = true
+    this.verdict(fpMargin, false)
+    this.optimistic = false
+    this.stage = Stage.Nominal
+    return this.ok
+  }
+
+  /** The full score of `params` (judged again), with the records the engine reports. */
+  score(params: Record<string, number>): CandidateScore {
+    if (!this.fill) return scoreRecords(this.ctx, params, this.keys)
+    this.judge(params)
+    const base = { ok: this.ok, reason: this.reason, windowMargin: this.windowMargin, strainMargin: this.strainMargin, footprintMargin: this.footprintMargin, objective: this.objective }
+    if (this.stage < Stage.Nominal) return { ...base, nominal: null, low: null, high: null, banded: false }
+    const nominal = this.ctx.estimator.estimate(params, this.ctx.modulus, this.ctx.strainLimit)
+    if (this.stage === Stage.Nominal) return { ...base, nominal, low: nominal, high: nominal, banded: false }
+    const low: Record<string, MetricValue> = { ...nominal }
+    const high: Record<string, MetricValue> = { ...nominal }
+    for (let k = 0; k < this.keys.length; k++) {
+      if (this.slotOf[k] < 0) continue
+      const key = this.keys[k]
+      low[key] = this.booleanKey[k] ? this.low[k] === 1 : Number.isNaN(this.low[k]) ? null : this.low[k]
+      high[key] = this.booleanKey[k] ? this.high[k] === 1 : Number.isNaN(this.high[k]) ? null : this.high[k]
+    }
+    return { ...base, nominal, low, high, banded: true }
+  }
+
+  private estimate(params: Record<string, number>, out: Float64Array): boolean {
+    try {
+      return this.fill!(params, this.ctx.modulus, this.ctx.strainLimit, out)
+    } catch {
+      return false
+    }
+  }
+
+  /** Folds one corner into the band: its values, the E-proportional ones times `scale`. An empty value empties the band (as fold does). */
+  private foldCorner(values: Float64Array, scale: number): void {
+    const { low, high, slotOf, scalesWithModulus } = this
+    for (let k = 0; k < slotOf.length; k++) {
+      const slot = slotOf[k]
+      if (slot < 0) continue
+      const v = scalesWithModulus[k] ? values[slot] * scale : values[slot]
+      if (Number.isNaN(v) || Number.isNaN(low[k])) { low[k] = NaN; high[k] = NaN; continue }
+      if (v < low[k]) low[k] = v
+      if (v > high[k]) high[k] = v
+    }
+  }
+
+  /** judged() on the raw band: the window score (scoreBand), strain and footprint. */
+  private verdict(fpMargin: number | null, banded: boolean): void {
+    const { low, high, ctx } = this
+    const c = ctx.compiled
+    let margin = MARGIN_LIMIT
+    let binding = -1
+    const second = this.secondKey
+    const bi = this.bistableKey
+    if (second >= 0 && (this.slotOf[second] < 0 || Number.isNaN(low[second]) || Number.isNaN(high[second]) ||
+      (bi >= 0 && this.slotOf[bi] >= 0 && (low[bi] === 0 || high[bi] === 0)))) {
+      margin = -Infinity
+      binding = -2
+    } else {
+      for (let i = 0; i < c.bounds.length; i++) {
+        const m = this.boundMargin(i)
+        if (m < margin || binding === -1) { margin = m; binding = i }
+      }
+    }
+    const sk = this.safetyKey
+    const sf = sk >= 0 && this.slotOf[sk] >= 0 && !Number.isNaN(low[sk]) && !(this.optimistic && !this.emptyFixed[sk]) ? low[sk] : null
+    const strainMargin = sf === null ? null : sf - 1
+    // Strain-governed families report exactly 1 at their largest travel: allow for rounding.
+    const strainOk = strainMargin === null || strainMargin >= -1e-9
+    const windowOk = margin >= 0
+    let objective = margin
+    if (strainMargin !== null && !strainOk && strainMargin < objective) objective = strainMargin
+    if (fpMargin !== null && fpMargin < objective) objective = fpMargin
+    this.ok = windowOk && strainOk
+    this.reason = !windowOk ? (binding === -2 ? 'bistable' : c.bounds[binding].id) : !strainOk ? 'strain' : null
+    this.windowMargin = margin
+    this.strainMargin = strainMargin
+    this.footprintMargin = fpMargin
+    this.objective = objective
+    this.banded = banded
+  }
+
+  /** boundMargin() on the raw band: an empty value is null, a key the estimator lacks is undefined. */
+  private boundMargin(i: number): number {
+    const b = this.ctx.compiled.bounds[i]
+    const k = this.boundKey[i]
+    const lowV = this.low[k]
+    const highV = this.high[k]
+    if (this.slotOf[k] < 0) return -Infinity
+    // a band may turn empty where its nominal is not: an unbounded minimum is then met at best
+    if (this.optimistic && b.nullMeans === 'unbounded' && b.side === 'min' && !this.emptyFixed[k]) return MARGIN_LIMIT
+    if (Number.isNaN(lowV) || Number.isNaN(highV)) {
+      if (b.nullMeans === 'unbounded' && Number.isNaN(lowV) && Number.isNaN(highV)) return b.side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT
+      return -Infinity
+    }
+    const lo = b.sign === 1 ? lowV : -highV
+    const hi = b.sign === 1 ? highV : -lowV
+    const m = b.side === 'min' ? (lo - b.bound) / b.scale : (b.bound - hi) / b.scale
+    return m > MARGIN_LIMIT ? MARGIN_LIMIT : m < -MARGIN_LIMIT ? -MARGIN_LIMIT : m
+  }
+
+  private reject(stage: Stage, reason: string, objective: number, fpMargin: number | null): false {
+    this.stage = stage
+    this.ok = false
+    this.reason = reason
+    this.windowMargin = objective
+    this.strainMargin = null
+    this.footprintMargin = fpMargin
+    this.objective = objective
+    this.banded = false
+    return false
+  }
+
+  private take(s: CandidateScore): boolean {
+    this.ok = s.ok
+    this.reason = s.reason
+    this.windowMargin = s.windowMargin
+    this.strainMargin = s.strainMargin
+    this.footprintMargin = s.footprintMargin
+    this.objective = s.objective
+    this.banded = s.banded
+    return s.ok
+  }
 }

@@ -12,10 +12,10 @@ import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'
 import { resolveTolerance } from '../tolerance'
 import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, judge, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
-import { scoreCandidate, type CandidateContext, type CandidateScore } from './candidate'
+import { CandidateJudge, type CandidateContext, type CandidateScore } from './candidate'
 import { estimatorFor, exactMethodOf } from './estimators'
 import { explainEmpty, type Tally } from './explain'
-import { rankKey } from './rank'
+import { marginRank, rankKey, safetyRank } from './rank'
 import { refine } from './refine'
 import { entryGrid, gridPoints, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
@@ -155,32 +155,56 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     const grid = entryGrid(unit.family, unit.entry, rules, budget)
     if (grid.problem) { tally.unprintable.push(`${unit.entry.name}: ${grid.problem}`); continue }
     const ctx = contextOf(unit, window, compiled)
+    const judge = new CandidateJudge(ctx, keys)
     const seeds: Scored[] = []
-    const mine: Scored[] = []
-    const consider = (params: Record<string, number>, score: CandidateScore) => {
+    const mine = new BestList(unit, limit)
+    const keep = new UnitKeeper(unit, judge)
+    // The judge holds the verdict of `params`; a Scored (records, envelope) is built only for
+    // the few candidates kept: a seed, the nearest miss, or one of the unit's best.
+    const consider = (params: Record<string, number>) => {
       tally.considered++
-      if (score.ok) mine.push(scored(unit, params, score))
-      else tally.reasons[score.reason!] = (tally.reasons[score.reason!] ?? 0) + 1
-      if (!score.ok && (!tally.nearest || score.objective > tally.nearest.score.objective)) tally.nearest = scored(unit, params, score)
-      if (seeds.length < REFINE_SEEDS || score.objective > seeds[seeds.length - 1].score.objective) {
-        seeds.push(scored(unit, params, score))
-        seeds.sort((a, b) => b.score.objective - a.score.objective)
+      keep.reset()
+      if (judge.ok) mine.offer(params, judge, keep)
+      else {
+        tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
+        if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)
+      }
+      if (seeds.length < REFINE_SEEDS || judge.objective > seeds[seeds.length - 1].score.objective) {
+        const s = keep.scored(params)
+        let at = seeds.length
+        while (at > 0 && seeds[at - 1].score.objective < s.score.objective) at--
+        seeds.splice(at, 0, s)
         if (seeds.length > REFINE_SEEDS) seeds.pop()
       }
     }
     let sinceYield = 0
     for (const params of gridPoints(grid.axes)) {
-      consider(params, scoreCandidate(ctx, params, keys))
       if (++sinceYield % YIELD_EVERY === 0) yield
+      // Once this unit already fills the answer and the seeds, a candidate whose nominal
+      // estimate bounds it out of both cannot change the answer (its band only ranks it lower,
+      // and the reasons and nearest miss only explain an empty answer): it is counted, not banded.
+      if (mine.full && seeds.length >= REFINE_SEEDS) {
+        const couldBeOk = judge.bound(params)
+        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !mine.couldEnter(params, judge))) {
+          tally.considered++
+          continue
+        }
+      }
+      judge.judge(params)
+      consider(params)
     }
     progress(u + 0.5, 'refining')
     const continuous: Axis[] = grid.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
     for (const seed of seeds) {
       if (options.refine === false || seed.score.objective === -Infinity || !continuous.length) continue
-      const found = refine(ctx, continuous, seed.params, seed.score, keys, consider)
-      if (found.score.ok) mine.push(scored(unit, found.params, found.score))
+      const found = refine(judge, continuous, seed.params, seed.score, consider)
+      if (found.ok) {
+        judge.judge(found.params)
+        keep.reset()
+        mine.offer(found.params, judge, keep)
+      }
     }
-    accepted.push(...bestOf(mine, limit))
+    accepted.push(...mine.items)
     progress(u + 1, 'sampling')
     yield
   }
@@ -219,6 +243,118 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
     : explainEmpty(window, compiled, tally, rules)
   return { results, considered: tally.considered, elapsedMs, explanation }
+}
+
+/**
+ * The n best of one unit by rank, each parameter set once, kept as candidates are offered:
+ * the same as bestOf over every accepted candidate in the order offered (the sort is stable,
+ * so of equal keys the earlier stays ahead, and a repeated parameter set has an equal key),
+ * without holding them all. The envelope is looked up only when the margin and safety bands
+ * do not already rule a candidate out of a full list.
+ */
+class BestList {
+  readonly items: Scored[] = []
+  /** The rank keys of the items, four numbers each (rankKey). */
+  private readonly keys: Float64Array
+
+  constructor(private readonly unit: Unit, private readonly n: number) {
+    this.keys = new Float64Array(4 * (n + 1))
+  }
+
+  get full(): boolean {
+    return this.items.length >= this.n
+  }
+
+  /** Where the candidate the judge holds would go (n or more: it would not enter); sets area and volume. */
+  private placeOf(params: Record<string, number>, judge: CandidateJudge, m: number, s: number): number {
+    const items = this.items
+    const keys = this.keys
+    const last = items.length - 1
+    if (items.length >= this.n && (m > keys[4 * last] || (m === keys[4 * last] && s > keys[4 * last + 1]))) return this.n
+    if (judge.ctx.footprint) {
+      this.area = judge.envelopeX * judge.envelopeY
+      this.volume = this.area * judge.envelopeZ
+    } else {
+      const env = this.unit.family.envelope(params)
+      this.area = env.x * env.y
+      this.volume = env.x * env.y * env.z
+    }
+    const { area, volume } = this
+    // the place a stable sort gives it: after every item that does not rank below it
+    let at = items.length
+    while (at > 0) {
+      const o = 4 * (at - 1)
+      const d = keys[o] !== m ? keys[o] - m : keys[o + 1] !== s ? keys[o + 1] - s : keys[o + 2] !== area ? keys[o + 2] - area : keys[o + 3] !== volume ? keys[o + 3] - volume : judge.windowMargin - items[at - 1].score.windowMargin
+      if (!(d > 0)) break
+      at--
+    }
+    return at
+  }
+
+  private area = 0
+  private volume = 0
+
+  /** Whether a candidate with the judge's (bounding) margins could enter the list. */
+  couldEnter(params: Record<string, number>, judge: CandidateJudge): boolean {
+    return this.placeOf(params, judge, marginRank(judge.windowMargin), safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)) < this.n
+  }
+
+  /** Offers the candidate the judge has just judged (ok); `keep` builds its Scored if it enters. */
+  offer(params: Record<string, number>, judge: CandidateJudge, keep: UnitKeeper): void {
+    const items = this.items
+    const keys = this.keys
+    const m = marginRank(judge.windowMargin)
+    const s = safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)
+    const at = this.placeOf(params, judge, m, s)
+    if (at >= this.n) return
+    const { area, volume } = this
+    // a parameter set offered again has the same key, so it sits just ahead among the equal ones
+    for (let i = at - 1; i >= 0 && sameRank(keys, i, m, s, area, volume) && items[i].score.windowMargin === judge.windowMargin; i--) {
+      if (sameParams(items[i].params, params)) return
+    }
+    keys.copyWithin(4 * (at + 1), 4 * at, 4 * items.length)
+    items.splice(at, 0, keep.scored(params))
+    keys[4 * at] = m
+    keys[4 * at + 1] = s
+    keys[4 * at + 2] = area
+    keys[4 * at + 3] = volume
+    if (items.length > this.n) items.pop()
+  }
+}
+
+function sameRank(keys: Float64Array, i: number, m: number, s: number, area: number, volume: number): boolean {
+  const o = 4 * i
+  return keys[o] === m && keys[o + 1] === s && keys[o + 2] === area && keys[o + 3] === volume
+}
+
+/** Equal numbers under every key: what equal JSON means for finite parameter values. */
+function sameParams(a: Record<string, number>, b: Record<string, number>): boolean {
+  for (const key in b) if (a[key] !== b[key]) return false
+  return true
+}
+
+/**
+ * Builds the Scored of the candidate being considered at most once (the judge scores it
+ * again to get the records); no closure per candidate.
+ */
+class UnitKeeper {
+  private params: Record<string, number> | null = null
+  private kept: Scored | null = null
+
+  constructor(private readonly unit: Unit, private readonly judge: CandidateJudge) {}
+
+  /** Starts a new candidate. */
+  reset(): void {
+    this.params = null
+    this.kept = null
+  }
+
+  scored(params: Record<string, number>): Scored {
+    if (this.kept && this.params === params) return this.kept
+    this.params = params
+    this.kept = scored(this.unit, params, this.judge.score(params))
+    return this.kept
+  }
 }
 
 /** The n best by rank, each parameter set once. */

@@ -15,6 +15,31 @@ import { estimateBistable } from '../families/bistable-beam/estimate'
 
 export type Estimate = Record<string, MetricValue>
 export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
+/**
+ * Writes the metrics into `out` in the layout's slot order — NaN for an empty (null) metric,
+ * 1/0 for a boolean — and returns false where the estimate does not apply (outside a table).
+ * Search judges millions of candidates on these raw numbers without building records.
+ */
+export type FillFn = (params: Record<string, number>, modulus: number, strainLimit: number, out: Float64Array) => boolean
+
+/**
+ * Metric keys in slot order, and how each depends on the modulus E at fixed geometry: 1 where it
+ * is proportional to E (forces, stiffnesses, energies: every closed form here is linear
+ * elasticity, and the bistable table is stored divided by E), 0 where it does not depend on E
+ * at all (travel, rotation, positions, and the strains: each family's strain is evaluated at a
+ * given displacement or rotation, or at a force that is itself proportional to E, so E cancels).
+ * That lets search take the modulus tolerance corners from one estimate per wall thickness.
+ * `emptyFixed` says whether a metric's being empty (null) is the same at every wall
+ * thickness — a snap hook's separation force is empty when its face locks, which only the
+ * angles and friction decide — so that a nominal estimate bounds the band (search's screen).
+ * A test holds each estimator to all three.
+ */
+export interface EstimateLayout {
+  keys: readonly string[]
+  modulusPower: readonly (0 | 1)[]
+  booleans: readonly boolean[]
+  emptyFixed: readonly boolean[]
+}
 
 export interface FastEstimator {
   /** How the estimate is made (reported with every result). */
@@ -24,9 +49,40 @@ export interface FastEstimator {
   /** True when it equals `reproduces` to rounding; false for interpolated tables. */
   exact: boolean
   estimate: EstimateFn
+  /** Raw-number form of `estimate` (dedicated estimators; the fallback has none). */
+  fill?: FillFn
+  layout?: EstimateLayout
 }
 
 const DEG = 180 / Math.PI
+
+/** `'empties with the walls'` marks a metric that may be null at one wall thickness and not at another. */
+function layoutOf(spec: Array<[key: string, modulusPower: 0 | 1 | 'boolean', empties?: 'empties with the walls']>): EstimateLayout {
+  return Object.freeze({
+    keys: Object.freeze(spec.map(([k]) => k)),
+    modulusPower: Object.freeze(spec.map(([, p]) => (p === 1 ? 1 : 0) as 0 | 1)),
+    booleans: Object.freeze(spec.map(([, p]) => p === 'boolean')),
+    emptyFixed: Object.freeze(spec.map(([, , e]) => e === undefined)),
+  })
+}
+
+/** The record form of a fill, in the layout's key order (one scratch buffer per estimator). */
+function recordOf(layout: EstimateLayout, fill: FillFn, outside: string): EstimateFn {
+  const scratch = new Float64Array(layout.keys.length)
+  return (params, modulus, strainLimit) => {
+    if (!fill(params, modulus, strainLimit, scratch)) throw new RangeError(outside)
+    const out: Estimate = {}
+    for (let i = 0; i < layout.keys.length; i++) {
+      const v = scratch[i]
+      out[layout.keys[i]] = layout.booleans[i] ? v === 1 : Number.isNaN(v) ? null : v
+    }
+    return out
+  }
+}
+
+function dedicated(method: string, reproduces: string, exact: boolean, layout: EstimateLayout, fill: FillFn, outside = 'outside the fast estimate\u2019s range'): FastEstimator {
+  return Object.freeze({ method, reproduces, exact, layout, fill, estimate: recordOf(layout, fill, outside) })
+}
 
 /**
  * The leaf hinge's metrics come from a root search in its model. Moment scales with E·b and
@@ -37,82 +93,109 @@ const DEG = 180 / Math.PI
  */
 const LEAF_MEMO_LIMIT = 50000
 const LEAF_REFERENCE_MODULUS = 1000
-const leafMemo = new Map<string, Estimate>()
-function leafHingeEstimate(p: Record<string, number>, E: number, limit: number): Estimate {
+/** Per memo key: rotationalStiffness at the reference modulus and unit depth, maxRotation, pivotDrift, maxStrain, safetyFactor. */
+const leafMemo = new Map<string, Float64Array>()
+const LEAF_LAYOUT = layoutOf([['rotationalStiffness', 1], ['maxRotation', 0], ['pivotDrift', 0], ['maxStrain', 0], ['safetyFactor', 0]])
+function leafHingeFill(p: Record<string, number>, E: number, limit: number, out: Float64Array): boolean {
   const key = `${p.length}|${p.thickness}|${p.linkLength}|${limit}`
   let unit = leafMemo.get(key)
   if (!unit) {
-    unit = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit }, method: 'prbm' }).metrics
+    const m = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit }, method: 'prbm' }).metrics
+    unit = Float64Array.from(LEAF_LAYOUT.keys, (k) => (typeof m[k] === 'number' ? (m[k] as number) : NaN))
     if (leafMemo.size >= LEAF_MEMO_LIMIT) leafMemo.clear()
     leafMemo.set(key, unit)
   }
-  return { ...unit, rotationalStiffness: ((unit.rotationalStiffness as number) * E * p.depth) / LEAF_REFERENCE_MODULUS }
+  out[0] = (unit[0] * E * p.depth) / LEAF_REFERENCE_MODULUS
+  out[1] = unit[1]
+  out[2] = unit[2]
+  out[3] = unit[3]
+  out[4] = unit[4]
+  return true
 }
+
+const BISTABLE_LAYOUT = layoutOf([
+  ['peakForce', 1], ['valleyForce', 1], ['unstablePosition', 0, 'empties with the walls'], ['secondStablePosition', 0, 'empties with the walls'],
+  ['energyIn', 1, 'empties with the walls'], ['energyBarrier', 1, 'empties with the walls'],
+  ['bistable', 'boolean'], ['maxStrain', 0], ['strainLimit', 0], ['safetyFactor', 0],
+])
+const bistableGeometry = { span: 0, apexHeight: 0, thickness: 0, depth: 0, postLength: 0 }
+const bistableMaterial = { modulus: 0, strainLimit: 0 }
+function bistableFill(p: Record<string, number>, E: number, limit: number, out: Float64Array): boolean {
+  bistableGeometry.span = p.span
+  bistableGeometry.apexHeight = p.apexHeight
+  bistableGeometry.thickness = p.thickness
+  bistableGeometry.depth = p.depth
+  bistableGeometry.postLength = p.postLength
+  bistableMaterial.modulus = E
+  bistableMaterial.strainLimit = limit
+  const e = estimateBistable(bistableGeometry, bistableMaterial)
+  if (!e) return false
+  for (let i = 0; i < BISTABLE_LAYOUT.keys.length; i++) {
+    const v = e[BISTABLE_LAYOUT.keys[i]]
+    out[i] = typeof v === 'boolean' ? (v ? 1 : 0) : v === null ? NaN : (v as number)
+  }
+  return true
+}
+
+const nanIfNull = (v: number | null) => (v === null ? NaN : v)
 
 /** Family id → dedicated estimator. Each reproduces the named method's metrics. */
 export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Object.freeze({
-  'parallel-guide': {
-    method: 'linear',
-    reproduces: 'linear',
-    exact: true,
-    estimate: (p, E, limit) => {
+  'parallel-guide': dedicated('linear', 'linear', true,
+    layoutOf([['stiffness', 1], ['maxTravel', 0], ['parasiticMotion', 0], ['maxStrain', 0], ['safetyFactor', 0]]),
+    (p, E, limit, out) => {
       const range = linearTravelRange(p, limit)
       const strain = linearStrain(p, range.maxTravel)
-      return { stiffness: linearStiffness(p, E), maxTravel: range.maxTravel, parasiticMotion: parasiticShortening(p.length, range.maxTravel), maxStrain: strain, safetyFactor: limit / strain }
-    },
-  },
-  'serpentine-spring': {
-    method: 'castigliano',
-    reproduces: 'castigliano',
-    exact: true,
-    estimate: (p, E, limit) => {
+      out[0] = linearStiffness(p, E)
+      out[1] = range.maxTravel
+      out[2] = parasiticShortening(p.length, range.maxTravel)
+      out[3] = strain
+      out[4] = limit / strain
+      return true
+    }),
+  'serpentine-spring': dedicated('castigliano', 'castigliano', true,
+    layoutOf([['stiffness', 1], ['maxTravel', 0], ['maxStrain', 0], ['safetyFactor', 0]]),
+    (p, E, limit, out) => {
       const k = castiglianoStiffness(p.spans, p.spanLength, p.pitch, (E * p.depth * p.thickness ** 3) / 12)
+      // strain per mm of travel: at the force k·1 mm, and k ∝ E, so E cancels
       const perMm = linearStrainAtForce(p, E, k)
       const maxTravel = Math.min(limit / perMm, travelCap(p))
-      return { stiffness: k, maxTravel, maxStrain: perMm * maxTravel, safetyFactor: limit / (perMm * maxTravel) }
-    },
-  },
-  'notch-hinge': {
-    method: 'paros-weisbord',
-    reproduces: 'paros-weisbord',
-    exact: true,
-    estimate: (p, E, limit) => {
+      out[0] = k
+      out[1] = maxTravel
+      out[2] = perMm * maxTravel
+      out[3] = limit / (perMm * maxTravel)
+      return true
+    }),
+  'notch-hinge': dedicated('paros-weisbord', 'paros-weisbord', true,
+    layoutOf([['rotationalStiffness', 1], ['maxRotation', 0], ['maxStrain', 0], ['safetyFactor', 0]]),
+    (p, E, limit, out) => {
+      // compliance ∝ 1/E and the limit moment ∝ E: the rotation range and the strain do not depend on E
       const compliance = parosWeisbordCompliance(E, p.depth, p.radius, p.neckThickness)
       const range = rotationRange(compliance, E, p.depth, p.neckThickness, limit)
       const strain = neckStrain(range.maxRotation / compliance, E, p.depth, p.neckThickness)
-      return { rotationalStiffness: 1 / compliance, maxRotation: range.maxRotation * DEG, maxStrain: strain, safetyFactor: limit / strain }
-    },
-  },
-  'snap-hook': {
-    method: 'snap-fit-equations',
-    reproduces: 'snap-fit-equations',
-    exact: true,
-    estimate: (p, E, limit) => {
+      out[0] = 1 / compliance
+      out[1] = range.maxRotation * DEG
+      out[2] = strain
+      out[3] = limit / strain
+      return true
+    }),
+  'snap-hook': dedicated('snap-fit-equations', 'snap-fit-equations', true,
+    layoutOf([['deflectionForce', 1], ['matingForce', 1], ['separationForce', 1], ['rootStrain', 0], ['strainLimit', 0], ['safetyFactor', 0]]),
+    (p, E, limit, out) => {
+      // the root strain is taken at the undercut (a displacement), so it does not depend on E
       const ratio = p.tipThickness / p.rootThickness
       const P = deflectionForce(E, p.width, p.rootThickness, p.length, p.undercut, ratio)
       const strain = rootStrainAt(p.undercut, p.length, p.rootThickness, ratio)
-      return {
-        deflectionForce: P, matingForce: wedgeForce(P, p.friction, p.entryAngle), separationForce: wedgeForce(P, p.friction, p.retainAngle),
-        rootStrain: strain, strainLimit: limit, safetyFactor: limit / strain,
-      }
-    },
-  },
-  'bistable-beam': {
-    method: 'table',
-    reproduces: 'nonlinear-fe',
-    exact: false,
-    estimate: (p, E, limit) => {
-      const e = estimateBistable({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength }, { modulus: E, strainLimit: limit })
-      if (!e) throw new RangeError('outside the precomputed bistable table')
-      return e
-    },
-  },
-  'leaf-hinge': {
-    method: 'prbm',
-    reproduces: 'prbm',
-    exact: true,
-    estimate: leafHingeEstimate,
-  },
+      out[0] = P
+      out[1] = nanIfNull(wedgeForce(P, p.friction, p.entryAngle))
+      out[2] = nanIfNull(wedgeForce(P, p.friction, p.retainAngle))
+      out[3] = strain
+      out[4] = limit
+      out[5] = limit / strain
+      return true
+    }),
+  'bistable-beam': dedicated('table', 'nonlinear-fe', false, BISTABLE_LAYOUT, bistableFill, 'outside the precomputed bistable table'),
+  'leaf-hinge': dedicated('prbm', 'prbm', true, LEAF_LAYOUT, leafHingeFill),
 })
 
 const EXACT_METHOD = 'nonlinear-fe'

@@ -20,9 +20,19 @@ export interface Rankable {
   volume: number
 }
 
+/** First part of the rank key: the margin's band, negated (smaller ranks first). */
+export function marginRank(windowMargin: number): number {
+  return -Math.floor(windowMargin / MARGIN_BUCKET)
+}
+
+/** Second part: the safety factor's band (capped; none counts as ample), negated. */
+export function safetyRank(safetyFactor: number | null): number {
+  const safety = safetyFactor === null ? SAFETY_CAP : Math.min(SAFETY_CAP, safetyFactor)
+  return -Math.floor(safety / SAFETY_BUCKET + 1e-9)
+}
+
 export function rankKey(r: Rankable): [number, number, number, number] {
-  const safety = r.safetyFactor === null ? SAFETY_CAP : Math.min(SAFETY_CAP, r.safetyFactor)
-  return [-Math.floor(r.windowMargin / MARGIN_BUCKET), -Math.floor(safety / SAFETY_BUCKET + 1e-9), r.area, r.volume]
+  return [marginRank(r.windowMargin), safetyRank(r.safetyFactor), r.area, r.volume]
 }
 
 export function compareRank(a: Rankable, b: Rankable): number {

@@ -5,7 +5,7 @@
  * objective (the smallest margin over the band), so it both widens the margin of a feasible
  * candidate and can walk a near miss into a narrow window the grid stepped over.
  */
-import { scoreCandidate, type CandidateContext, type CandidateScore } from './candidate'
+import type { CandidateJudge } from './candidate'
 import { snapToStep, type Axis } from './sampling'
 
 /** Evaluations allowed per refinement. */
@@ -13,19 +13,26 @@ export const REFINE_EVALUATIONS = 160
 
 export interface Refined {
   params: Record<string, number>
-  score: CandidateScore
+  /** Whether the best found meets the window (the start's verdict when nothing improved). */
+  ok: boolean
+  objective: number
 }
 
+/**
+ * `onEvaluated` is called after each trial is judged, with the judge's fields holding its
+ * verdict; the params object is reused, so copy it to keep it.
+ */
 export function refine(
-  ctx: CandidateContext,
+  judge: CandidateJudge,
   axes: Axis[],
   start: Record<string, number>,
-  startScore: CandidateScore,
-  keys: string[],
-  onEvaluated: (params: Record<string, number>, score: CandidateScore) => void,
+  startVerdict: { ok: boolean; objective: number },
+  onEvaluated: (params: Record<string, number>) => void,
 ): Refined {
   let best = { ...start }
-  let bestScore = startScore
+  let bestObjective = startVerdict.objective
+  let bestOk = startVerdict.ok
+  const trial = { ...start }
   const steps = axes.map((a) => (a.hi - a.lo) / Math.max(1, a.values.length - 1) / 2)
   let evaluations = 0
   while (evaluations < REFINE_EVALUATIONS) {
@@ -37,13 +44,15 @@ export function refine(
       for (const dir of [1, -1]) {
         const v = snapToStep(spec, Math.min(hi, Math.max(lo, best[spec.key] + dir * Math.max(steps[i], unit))), lo, hi, unit)
         if (Math.abs(v - best[spec.key]) < 1e-12) continue
-        const trial = { ...best, [spec.key]: v }
-        const score = scoreCandidate(ctx, trial, keys)
+        for (const key in best) trial[key] = best[key]
+        trial[spec.key] = v
+        judge.judge(trial)
         evaluations++
-        onEvaluated(trial, score)
-        if (score.objective > bestScore.objective + 1e-12) {
-          best = trial
-          bestScore = score
+        onEvaluated(trial)
+        if (judge.objective > bestObjective + 1e-12) {
+          best = { ...trial }
+          bestObjective = judge.objective
+          bestOk = judge.ok
           improved = true
           break
         }
@@ -58,5 +67,5 @@ export function refine(
       if (!any) break
     }
   }
-  return { params: best, score: bestScore }
+  return { params: best, ok: bestOk, objective: bestObjective }
 }

@@ -1,0 +1,142 @@
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import { families } from '../../../catalog'
+import { dedicatedEstimators, estimatorFor, type FastEstimator } from '../../../catalog/search'
+import { CandidateJudge, scoreRecords, type CandidateContext, type CandidateScore } from '../../../catalog/search/candidate'
+import { resolveTolerance } from '../../../catalog/tolerance'
+import { compileWindow, parseWindow, quantitiesOf } from '../../../catalog/window'
+import type { FamilyDefinition } from '../../../catalog/schema/types'
+
+// The judge takes the modulus tolerance corners by scaling the thickness corners instead of
+// estimating them: it rests on linear elasticity — every force and stiffness formula the
+// families implement has E as a plain factor (Roark 7th ed., ch. 8 beam formulas; the
+// Paros–Weisbord compliance is 1/E times geometry; the bistable table is stored over E) —
+// and on strains taken at a displacement, or at a force proportional to E, where E cancels.
+// These tests hold each dedicated estimator to that, and the judge to the record path that
+// estimates all five points.
+
+const dedicated = families.filter((f) => dedicatedEstimators[f.id])
+
+function validParams(family: FamilyDefinition) {
+  return fc.record(Object.fromEntries(family.params.map((p) => [p.key, p.integer
+    ? fc.integer({ min: p.min, max: p.max })
+    : fc.double({ min: p.min, max: p.max, noNaN: true })]))).filter((params) => family.rules.every((r) => r.check(params as Record<string, number>) === null))
+}
+
+function fillOf(estimator: FastEstimator, params: Record<string, number>, E: number, limit: number): Float64Array | null {
+  const out = new Float64Array(estimator.layout!.keys.length)
+  return estimator.fill!(params, E, limit, out) ? out : null
+}
+
+const sameNumber = (observed: number, expected: number, relative: number) =>
+  (Number.isNaN(observed) && Number.isNaN(expected)) || observed === expected || Math.abs(observed - expected) <= relative * Math.abs(expected)
+
+describe('fast estimators: modulus dependence and emptiness', () => {
+  for (const family of dedicated) {
+    const estimator = estimatorFor(family)
+    it(`${family.id}: metrics marked proportional to E scale with it, the others do not change`, () => {
+      fc.assert(fc.property(validParams(family), fc.double({ min: 300, max: 4000, noNaN: true }), fc.double({ min: 0.5, max: 1.6, noNaN: true }), (params, E, factor) => {
+        const p = params as Record<string, number>
+        const base = fillOf(estimator, p, E, 0.03)
+        const scaled = fillOf(estimator, p, E * factor, 0.03)
+        expect(scaled === null).toBe(base === null)
+        if (!base || !scaled) return
+        estimator.layout!.keys.forEach((key, i) => {
+          const expected = estimator.layout!.modulusPower[i] === 1 ? base[i] * factor : base[i]
+          if (!sameNumber(scaled[i], expected, 1e-12)) throw new Error(`${key}: at E×${factor} observed ${scaled[i]}, expected ${expected}`)
+        })
+      }), { numRuns: family.id === 'leaf-hinge' ? 40 : 200 })
+    })
+
+    it(`${family.id}: a metric marked as emptying the same at every wall thickness does`, () => {
+      const walls = family.params.filter((p) => p.role === 'wall')
+      fc.assert(fc.property(validParams(family), fc.double({ min: -0.1, max: 0.1, noNaN: true }), (params, dt) => {
+        const p = params as Record<string, number>
+        const shifted = { ...p }
+        for (const w of walls) shifted[w.key] = Math.min(w.max, Math.max(w.min, p[w.key] + dt))
+        const nominal = fillOf(estimator, p, 2000, 0.03)
+        const corner = fillOf(estimator, shifted, 2000, 0.03)
+        if (!nominal || !corner) return
+        estimator.layout!.keys.forEach((key, i) => {
+          if (estimator.layout!.emptyFixed[i] && Number.isNaN(nominal[i]) !== Number.isNaN(corner[i])) throw new Error(`${key} is empty at one wall thickness and not at the other`)
+        })
+      }), { numRuns: family.id === 'leaf-hinge' ? 40 : 200 })
+    })
+
+    it(`${family.id}: the layout names the estimate's keys in its order`, () => {
+      const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
+      expect(Object.keys(estimator.estimate(params, 2000, 0.03))).toEqual([...estimator.layout!.keys])
+    })
+  }
+})
+
+/** A window of the family's kind with random bounds around the metrics of a random configuration. */
+function windowAround(family: FamilyDefinition, metrics: Record<string, unknown>, spread: number[], tolerance: { thickness: number; modulus: number }) {
+  const window: Record<string, unknown> = { kind: family.kind, tolerance }
+  quantitiesOf(family.kind).forEach((q, i) => {
+    const v = metrics[q.metric]
+    if (typeof v !== 'number') return
+    const value = q.sign * v
+    const s = spread[i % spread.length]
+    if (s < 0.2) return // leave this quantity open
+    const lo = value * (1 - s / 2)
+    const hi = value * (1 + s)
+    window[q.key] = s < 0.6 ? { min: Math.max(0, Math.min(lo, hi)) } : s < 1 ? { max: Math.max(0, lo, hi) } : { min: Math.max(0, Math.min(lo, hi)), max: Math.max(0, lo, hi) }
+  })
+  return parseWindow(window, { materialIds: [] })
+}
+
+function expectSameScore(observed: CandidateScore, expected: CandidateScore) {
+  expect(observed.ok).toBe(expected.ok)
+  expect(observed.reason).toBe(expected.reason)
+  expect(observed.banded).toBe(expected.banded)
+  for (const key of ['windowMargin', 'objective', 'strainMargin', 'footprintMargin'] as const) {
+    const o = observed[key]
+    const e = expected[key]
+    if (typeof e === 'number' && typeof o === 'number') expect(sameNumber(o, e, 1e-9) || Math.abs(o - e) < 1e-12, key).toBe(true)
+    else expect(o, key).toBe(e)
+  }
+  for (const side of ['nominal', 'low', 'high'] as const) {
+    const o = observed[side]
+    const e = expected[side]
+    if (e === null) { expect(o).toBeNull(); continue }
+    expect(Object.keys(o!).sort()).toEqual(Object.keys(e).sort())
+    for (const [k, v] of Object.entries(e)) {
+      const w = o![k]
+      if (typeof v === 'number' && typeof w === 'number') expect(sameNumber(w, v, 1e-12), `${side}.${k}: ${w} vs ${v}`).toBe(true)
+      else expect(w, `${side}.${k}`).toBe(v)
+    }
+  }
+}
+
+describe('CandidateJudge', () => {
+  for (const family of dedicated) {
+    it(`${family.id}: three estimates and scaling give the score of the five-estimate record path`, () => {
+      const estimator = estimatorFor(family)
+      const tolerance = fc.record({ thickness: fc.constantFrom(0, 0.02, 0.05, 0.1), modulus: fc.constantFrom(0, 0.1, 0.3) })
+      let banded = 0
+      fc.assert(fc.property(validParams(family), validParams(family), fc.boolean(), fc.array(fc.double({ min: 0, max: 1.5, noNaN: true }), { minLength: 3, maxLength: 3 }), tolerance, (around, other, same, spread, tol) => {
+        const metrics = estimator.estimate(around as Record<string, number>, 2000, 0.03)
+        const window = windowAround(family, metrics, spread, tol)
+        const compiled = compileWindow(window)
+        const ctx: CandidateContext = {
+          family, estimator, modulus: 2000, strainLimit: 0.03, tolerance: resolveTolerance(window.tolerance), compiled, footprint: undefined,
+          walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
+        }
+        const keys = [...compiled.metrics, 'bistable']
+        const judge = new CandidateJudge(ctx, keys)
+        // half the time the candidate is the configuration the window was built around, so that many pass to the band
+        const p = (same ? around : other) as Record<string, number>
+        const expected = scoreRecords(ctx, p, keys)
+        if (expected.banded) banded++
+        expectSameScore(judge.score(p), expected)
+        // the screen's bound is never below the verdict
+        const couldBeOk = judge.bound(p)
+        if (expected.ok) expect(couldBeOk).toBe(true)
+        expect(judge.objective >= expected.objective - 1e-12).toBe(true)
+        if (expected.ok) expect(judge.windowMargin >= expected.windowMargin - 1e-12).toBe(true)
+      }), { numRuns: family.id === 'leaf-hinge' ? 40 : 150 })
+      expect(banded).toBeGreaterThan(5)
+    })
+  }
+})
