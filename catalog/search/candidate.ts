@@ -237,8 +237,7 @@ export class CandidateJudge {
   judge(params: Record<string, number>): boolean {
     const ctx = this.ctx
     if (!this.fill) return this.take(scoreRecords(ctx, params, this.keys))
-    const rules = ctx.family.rules
-    for (let i = 0; i < rules.length; i++) if (rules[i].check(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
+    if (this.rulesFail(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
     let fpMargin: number | null = null
     if (ctx.footprint) {
       const env = ctx.family.envelope(params)
@@ -249,6 +248,30 @@ export class CandidateJudge {
       if (fpMargin !== null && fpMargin < 0) return this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
     }
     if (!this.estimate(params, this.nominal)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+    return this.fromNominal(params, fpMargin)
+  }
+
+  /**
+   * judge() for the candidate bound() has just bounded, reusing its footprint and nominal
+   * estimate: the same verdict, one estimate fewer.
+   */
+  judgeBounded(params: Record<string, number>): boolean {
+    if (!this.fill) return this.judge(params)
+    if (this.rulesFail(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
+    // bound() stopped at the footprint or the estimate: that verdict stands (its fields are kept)
+    if (this.stage === Stage.Footprint || this.stage === Stage.Model) return false
+    return this.fromNominal(params, this.footprintMargin)
+  }
+
+  private rulesFail(params: Record<string, number>): boolean {
+    const rules = this.ctx.family.rules
+    for (let i = 0; i < rules.length; i++) if (rules[i].check(params)) return true
+    return false
+  }
+
+  /** The verdict from the nominal estimate in `nominal` on: nominal first, then the band. */
+  private fromNominal(params: Record<string, number>, fpMargin: number | null): boolean {
+    const ctx = this.ctx
     const { low, high, slotOf, nominal } = this
     for (let k = 0; k < slotOf.length; k++) {
       const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN

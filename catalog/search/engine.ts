@@ -17,7 +17,7 @@ import { estimatorFor, exactMethodOf } from './estimators'
 import { explainEmpty, type Tally } from './explain'
 import { marginRank, rankKey, safetyRank } from './rank'
 import { refine } from './refine'
-import { entryGrid, gridPoints, type Axis } from './sampling'
+import { entryGrid, GridCursor, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
 import type { Confirmation, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
 import { describeResult } from './why'
@@ -178,7 +178,9 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       }
     }
     let sinceYield = 0
-    for (const params of gridPoints(grid.axes)) {
+    const cursor = new GridCursor(grid.axes)
+    const params = cursor.params
+    while (cursor.next()) {
       if (++sinceYield % YIELD_EVERY === 0) yield
       // Once this unit already fills the answer and the seeds, a candidate whose nominal
       // estimate bounds it out of both cannot change the answer (its band only ranks it lower,
@@ -189,8 +191,8 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
           tally.considered++
           continue
         }
-      }
-      judge.judge(params)
+        judge.judgeBounded(params)
+      } else judge.judge(params)
       consider(params)
     }
     progress(u + 0.5, 'refining')

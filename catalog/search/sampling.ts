@@ -118,3 +118,37 @@ export function* gridPoints(axes: Axis[]): Generator<Record<string, number>> {
     if (k < 0) return
   }
 }
+
+/**
+ * The grid points in the same order as gridPoints, stepped by `next()` without a generator's
+ * result object per point: the search's hot loop. `params` is refilled in place.
+ */
+export class GridCursor {
+  readonly params: Record<string, number> = {}
+  private readonly index: Int32Array
+  private started = false
+  private done: boolean
+
+  constructor(private readonly axes: Axis[]) {
+    this.index = new Int32Array(axes.length)
+    for (let i = 0; i < axes.length; i++) this.params[axes[i].spec.key] = axes[i].values[0]
+    this.done = axes.some((a) => a.values.length === 0)
+  }
+
+  /** Moves to the next point (the first on the first call); false when the grid is done. */
+  next(): boolean {
+    if (this.done) return false
+    if (!this.started) { this.started = true; return true }
+    const { axes, index, params } = this
+    let k = axes.length - 1
+    while (k >= 0) {
+      index[k]++
+      if (index[k] < axes[k].values.length) { params[axes[k].spec.key] = axes[k].values[index[k]]; return true }
+      index[k] = 0
+      params[axes[k].spec.key] = axes[k].values[0]
+      k--
+    }
+    this.done = true
+    return false
+  }
+}
