@@ -3,7 +3,6 @@
  * the user's tokenVersion (bumped on a role change) and a jti (listed when signed out).
  */
 import { randomUUID } from 'node:crypto'
-import bcrypt from 'bcryptjs'
 import jwt from 'jsonwebtoken'
 import { Op } from 'sequelize'
 import { z } from 'zod'
@@ -12,6 +11,8 @@ import type { User } from '../db'
 import { HttpError, unauthenticated } from '../errors'
 import { bodySchema, parseBody, textField } from '../validation'
 import { recordAudit } from './audit'
+import { compute } from './compute-pool'
+import { readCache } from './read-cache'
 import { toUserView, type UserView } from './users'
 
 export const PASSWORD_MIN_LENGTH = 10
@@ -61,7 +62,7 @@ interface Claims {
 }
 
 export function hashPassword(context: AppContext, password: string): Promise<string> {
-  return bcrypt.hash(password, context.config.bcryptCost)
+  return compute.hashPassword(password, context.config.bcryptCost)
 }
 
 export function issueToken(context: AppContext, user: User): string {
@@ -98,11 +99,12 @@ export async function signIn(context: AppContext, body: unknown): Promise<Sessio
   // password it merely starts with; no stored password is longer, so refuse it outright
   const tooLong = Buffer.byteLength(input.password, 'utf8') > PASSWORD_MAX_BYTES
   if (!user || tooLong) {
-    dummyHash ??= bcrypt.hash('not-a-password-of-anyone', context.config.bcryptCost)
-    await bcrypt.compare(input.password, await dummyHash)
+    dummyHash ??= compute.hashPassword('not-a-password-of-anyone', context.config.bcryptCost)
+    await compute.comparePassword(input.password, await dummyHash)
     throw unauthenticated(WRONG_CREDENTIALS)
   }
-  if (!(await bcrypt.compare(input.password, user.passwordHash))) throw unauthenticated(WRONG_CREDENTIALS)
+  // bcrypt on the compute pool: a burst of sign-ins does not stall other requests
+  if (!(await compute.comparePassword(input.password, user.passwordHash))) throw unauthenticated(WRONG_CREDENTIALS)
   return { token: issueToken(context, user), user: toUserView(user) }
 }
 
@@ -123,8 +125,14 @@ function verifyClaims(context: AppContext, token: string): Claims {
 export async function authenticateToken(context: AppContext, token: string): Promise<Authenticated> {
   const claims = verifyClaims(context, token)
   const { User, RevokedToken } = context.db.models
-  if (await RevokedToken.findByPk(claims.jti)) throw unauthenticated('this session has been signed out; sign in again')
-  const user = await User.findByPk(Number(claims.sub))
+  // the two lookups behind every request, kept until a user or a revocation is written
+  // (read-cache.ts), so sign-out and role changes still take effect on the next request
+  const found = await readCache(context.db).read('session', `${claims.jti}|${claims.sub}`, ['User', 'RevokedToken'], async () => ({
+    revoked: Boolean(await RevokedToken.findByPk(claims.jti)),
+    user: await User.findByPk(Number(claims.sub)),
+  }))
+  if (found.revoked) throw unauthenticated('this session has been signed out; sign in again')
+  const { user } = found
   if (!user) throw unauthenticated('the account no longer exists')
   if (user.tokenVersion !== claims.ver) throw unauthenticated('your role has changed; sign in again')
   return { user, jti: claims.jti, expiresAt: new Date(claims.exp * 1000) }

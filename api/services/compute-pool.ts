@@ -1,5 +1,5 @@
 /**
- * Heavy computations (evaluations, tolerance bands, STL) off the request thread, on a
+ * Heavy computations (evaluations, tolerance bands, STL, bcrypt) off the request thread, on a
  * piscina pool of worker threads, so a burst of them never stalls light requests such as the
  * shelf list or a sign-in. One pool per process, shared by every app in it.
  *
@@ -8,6 +8,7 @@
  * anywhere else (tests mounting the app in-process, scripts) tasks run in the calling thread,
  * with the same answers and errors.
  */
+import bcrypt from 'bcryptjs'
 import { Piscina } from 'piscina'
 import type { EvaluateOptions, Evaluation } from '../../catalog'
 import type { ToleranceBand } from '../../catalog/tolerance'
@@ -35,7 +36,12 @@ export async function configureComputePool(options: { threads: number }): Promis
 export const computeThreads = () => (pool ? pool.maxThreads : 0)
 
 async function run(task: ComputeTask): Promise<unknown> {
-  if (!pool) return runTask(task)
+  if (!pool) {
+    // without threads bcrypt runs in its asynchronous form, which yields between rounds
+    if (task.kind === 'hashPassword') return bcrypt.hash(task.password, task.cost)
+    if (task.kind === 'comparePassword') return bcrypt.compare(task.password, task.hash)
+    return runTask(task)
+  }
   const outcome = await pool.run(task)
   if (!outcome.ok) throw fromFailure(outcome.error)
   return outcome.value
@@ -47,4 +53,6 @@ export const compute = {
   toleranceBand: (familyId: string, params: unknown, options: Extract<ComputeTask, { kind: 'band' }>['options'] = {}) =>
     run({ kind: 'band', familyId, params, options }) as Promise<ToleranceBand>,
   stl: (familyId: string, params: unknown) => run({ kind: 'stl', familyId, params }) as Promise<Uint8Array>,
+  hashPassword: (password: string, cost: number) => run({ kind: 'hashPassword', password, cost }) as Promise<string>,
+  comparePassword: (password: string, hash: string) => run({ kind: 'comparePassword', password, hash }) as Promise<boolean>,
 }

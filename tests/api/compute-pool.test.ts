@@ -63,3 +63,15 @@ describe('the compute pool without threads', () => {
     expect(await failure(() => compute.evaluate('notch-hinge', { radius: 'big' }))).toBeInstanceOf(ValidationError)
   })
 })
+
+describe('bcrypt on the compute pool', () => {
+  beforeAll(() => configureComputePool({ threads: 1 }))
+  afterAll(() => configureComputePool({ threads: 0 }))
+
+  it('hashes at the cost asked for, and compares right and wrong passwords', async () => {
+    const hash = await compute.hashPassword('correct horse battery', 10)
+    expect(hash).toMatch(/^\$2[aby]\$10\$/)
+    expect(await compute.comparePassword('correct horse battery', hash)).toBe(true)
+    expect(await compute.comparePassword('wrong horse battery', hash)).toBe(false)
+  })
+})

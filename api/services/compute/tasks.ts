@@ -1,8 +1,10 @@
 /**
  * The heavy computations the API runs off the request thread, as plain data in and out so
- * they cross a worker-thread boundary: an evaluation, a tolerance band, an STL. The same
+ * they cross a worker-thread boundary: an evaluation, a tolerance band, an STL, a bcrypt
+ * hash or comparison. The same
  * function runs in a pool thread (worker.ts) or, without threads, in the calling one.
  */
+import bcrypt from 'bcryptjs'
 import { buildGeometry, evaluate, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation } from '../../../catalog'
 import { toleranceBand, type ToleranceBand } from '../../../catalog/tolerance'
 
@@ -12,8 +14,10 @@ export type ComputeTask =
   | { kind: 'evaluate'; familyId: string; params: unknown; options: { method?: string; ranges?: EvaluateOptions['ranges']; materials?: Materials } }
   | { kind: 'band'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2] }
   | { kind: 'stl'; familyId: string; params: unknown }
+  | { kind: 'hashPassword'; password: string; cost: number }
+  | { kind: 'comparePassword'; password: string; hash: string }
 
-export type ComputeValue = Evaluation | ToleranceBand | Uint8Array
+export type ComputeValue = Evaluation | ToleranceBand | Uint8Array | string | boolean
 
 /** A failure as data: the core's own errors keep their class, fields and details. */
 export type ComputeFailure =
@@ -32,6 +36,11 @@ export function runTask(task: ComputeTask): ComputeValue {
       return toleranceBand(task.familyId, task.params, task.options)
     case 'stl':
       return serializeStl(buildGeometry(task.familyId, task.params))
+    // bcrypt is slow on purpose (a quarter second at cost 12): on a pool thread it may block
+    case 'hashPassword':
+      return bcrypt.hashSync(task.password, task.cost)
+    case 'comparePassword':
+      return bcrypt.compareSync(task.password, task.hash)
   }
 }
 
