@@ -2,7 +2,7 @@ export { windowQuantities, windowKinds, familyKindsForWindow, quantitiesOf } fro
 export type { WindowKind, WindowQuantity } from './quantities'
 export { parseWindow, DEFAULT_LIMIT, MAX_LIMIT } from './schema'
 export type { ForceWindow, WindowRange, PrinterProfile, ManufacturingTolerance, ParseWindowOptions } from './schema'
-export { judge, judgeWithBand, verdictOf, worstVerdict, EDGE_FRACTION, MARGIN_LIMIT } from './judge'
+export { judge, judgeWithBand, judgeStrain, verdictOf, worstVerdict, EDGE_FRACTION, MARGIN_LIMIT } from './judge'
 export type { Judgement, ConstraintCheck, StrainCheck, Verdict, MetricBand, Metrics, JudgeOptions } from './judge'
 export { compileWindow, boundMargin, scoreBand } from './compiled'
 export type { CompiledWindow, CompiledBound, WindowScore } from './compiled'

@@ -39,6 +39,12 @@ export interface ConstraintCheck {
 }
 
 export interface StrainCheck {
+  /**
+   * 'peak': the largest strain of the part's own stroke (switches, latches).
+   * 'working-range': the family reports its travel or rotation up to the strain limit
+   * (springs, guides, hinges), so a factor of 1 is the definition of that range, not a fault.
+   */
+  basis: 'peak' | 'working-range'
   /** Strain limit over the largest strain (worst over the band). */
   safetyFactor: number
   /** safetyFactor − 1: the fraction of the limit still unused. */
@@ -135,12 +141,20 @@ function footprintChecks(window: ForceWindow, envelope: { x: number; y: number }
   return worst(turned) > worst(straight) ? turned : straight
 }
 
-function strainCheck(input: Metrics | MetricBand, band: boolean): StrainCheck | null {
+/** Rounding allowance on a working range's factor of 1 (interpolated at the limit). */
+const RANGE_LIMIT_SLACK = 1e-6
+
+/** Strain against the material's limit from nominal metrics or (band = true) a tolerance band. */
+export function judgeStrain(input: Metrics | MetricBand, band: boolean): StrainCheck | null {
   const raw = input.safetyFactor
   const sf = band ? (Array.isArray(raw) ? raw[0] : null) : typeof raw === 'number' ? raw : null
   if (sf === null || sf === undefined) return null
   const margin = clampMargin(sf - 1)
-  return { safetyFactor: sf, margin, verdict: verdictOf(margin) }
+  if ('maxTravel' in input || 'maxRotation' in input) {
+    // the range ends where the strain reaches the limit: only a factor below 1 is a fault
+    return { basis: 'working-range', safetyFactor: sf, margin, verdict: sf >= 1 - RANGE_LIMIT_SLACK ? 'inside' : 'outside' }
+  }
+  return { basis: 'peak', safetyFactor: sf, margin, verdict: verdictOf(margin) }
 }
 
 /**
@@ -169,7 +183,7 @@ export function judge(window: ForceWindow, input: Metrics | MetricBand, options:
   const numeric = constraints.filter((c) => c.id !== 'bistable')
   const missing = constraints.some((c) => c.verdict === 'outside' && c.margin === null)
   const margin = missing || numeric.length === 0 ? null : Math.min(...numeric.map((c) => c.margin as number))
-  return { verdict: worstVerdict(constraints.map((c) => c.verdict)), margin, constraints, strain: strainCheck(input, band) }
+  return { verdict: worstVerdict(constraints.map((c) => c.verdict)), margin, constraints, strain: judgeStrain(input, band) }
 }
 
 /** The two verdicts the configure screen shows: nominal, and the whole tolerance band. */

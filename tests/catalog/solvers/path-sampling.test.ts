@@ -3,7 +3,10 @@ import { SolverError } from '../../../catalog/errors'
 import { firstCrossing, indicesUpTo, sampleAt, strainLimitedStop } from '../../../catalog/solvers'
 import type { PathResult } from '../../../catalog/solvers'
 
-const path = (control: number[], maxStrain: number[]): PathResult => ({ control, reaction: control.map((c) => 2 * c), maxStrain, tracked: [], iterations: 0 })
+const path = (control: number[], maxStrain: number[]): PathResult => ({
+  control, reaction: control.map((c) => 2 * c), maxStrain, tracked: [], iterations: 0,
+  stable: control.map(() => true), extrema: [], steps: control.length, jumps: [], stabilityLoss: [],
+})
 
 describe('path sampling', () => {
   it('finds the fractional index where a rising series first reaches a level', () => {

@@ -20,7 +20,7 @@ describe('judge (nominal metrics)', () => {
     expect(marginOf(observed, 'travel.max')).toBeCloseTo((8 - 6) / 8, 12)
     expect(observed.margin).toBeCloseTo(0.25, 12)
     expect(observed.verdict).toBe('inside')
-    expect(observed.strain).toEqual({ safetyFactor: 1.5, margin: 0.5, verdict: 'inside' })
+    expect(observed.strain).toEqual({ basis: 'peak', safetyFactor: 1.5, margin: 0.5, verdict: 'inside' })
   })
 
   it('calls a value on the bound or within 5 % of the width of it the edge', () => {
@@ -139,5 +139,19 @@ describe('judge (properties)', () => {
       const jb = judge(w, { stiffness: [l, h] })
       return (jb.margin as number) <= (jn.margin as number) && rank[jb.verdict] <= rank[jn.verdict]
     }))
+  })
+})
+
+describe('strain of a working-range family', () => {
+  // springs, guides and hinges report their travel up to the strain limit (issue 4), so the
+  // factor at that travel is 1 by definition (common practice for stating a flexure's range)
+  const spring = parseWindow({ kind: 'spring', stiffness: { min: 0.1, max: 1 } })
+  it('does not call a factor of 1 at the end of the range a fault', () => {
+    const observed = judge(spring, { stiffness: 0.5, maxTravel: 4, maxStrain: 0.02, safetyFactor: 1 })
+    expect(observed.strain).toMatchObject({ basis: 'working-range', verdict: 'inside' })
+  })
+  it('still calls a factor below 1 outside', () => {
+    const observed = judge(spring, { stiffness: 0.5, maxTravel: 4, maxStrain: 0.03, safetyFactor: 0.66 })
+    expect(observed.strain).toMatchObject({ basis: 'working-range', verdict: 'outside' })
   })
 })

@@ -60,6 +60,11 @@ export function verdictSentence(j: Judgement, scope: 'nominal' | 'band'): string
 export function describeStrain(s: StrainCheck | null): { factor: string; words: string; verdict: Verdict | null } {
   if (!s) return { factor: '—', words: 'The method does not report the strain.', verdict: null }
   const factor = `${formatNumber(s.safetyFactor, 3)} ×`
+  if (s.basis === 'working-range') {
+    return s.verdict === 'outside'
+      ? { factor, words: 'Strain above the material limit inside the working range: the part may crack or yield.', verdict: s.verdict }
+      : { factor, words: 'The strain limit sets the working range: the largest travel or rotation shown is where the strain reaches it.', verdict: s.verdict }
+  }
   if (s.verdict === 'outside') return { factor, words: 'Strain above the material limit: the part may crack or yield.', verdict: s.verdict }
   if (s.verdict === 'edge') return { factor, words: 'Strain close to the material limit: little reserve for fatigue.', verdict: s.verdict }
   return { factor, words: 'Strain below the material limit.', verdict: s.verdict }

@@ -50,8 +50,9 @@ describe('verdict wording', () => {
   })
 
   it('phrases the strain safety factor against the material limit', () => {
-    expect(describeStrain({ safetyFactor: 1.64, margin: 0.64, verdict: 'inside' })).toEqual({ factor: '1.64 ×', words: 'Strain below the material limit.', verdict: 'inside' })
-    expect(describeStrain({ safetyFactor: 0.8, margin: -0.2, verdict: 'outside' }).words).toMatch(/above the material limit/)
+    expect(describeStrain({ basis: 'peak', safetyFactor: 1.64, margin: 0.64, verdict: 'inside' })).toEqual({ factor: '1.64 ×', words: 'Strain below the material limit.', verdict: 'inside' })
+    expect(describeStrain({ basis: 'peak', safetyFactor: 0.8, margin: -0.2, verdict: 'outside' }).words).toMatch(/above the material limit/)
     expect(describeStrain(null).factor).toBe('—')
+    expect(describeStrain({ basis: 'working-range', safetyFactor: 1, margin: 0, verdict: 'inside' }).words).toMatch(/sets the working range/)
   })
 })

@@ -48,7 +48,7 @@ describe('ConfigureVerdict', () => {
       { peakForce: 3.65, valleyForce: -1.17, secondStablePosition: 3.82, bistable: true, safetyFactor: 1.64 },
       { peakForce: [2.8, 4.57], valleyForce: [-1.23, -0.98], secondStablePosition: [3.74, 3.88], safetyFactor: [1.59, 1.71] },
     )
-    const wrapper = mount(ConfigureVerdict, { props: { verdict, strain: { nominal: 1.64, band: 1.59 }, toleranceText: '±0.05 mm walls, ±10 % modulus' } })
+    const wrapper = mount(ConfigureVerdict, { props: { verdict, strain: { nominal: verdict.nominal.strain, band: verdict.band.strain }, toleranceText: '±0.05 mm walls, ±10 % modulus' } })
     expect(wrapper.find('[data-testid="verdict-nominal"] .word').text()).toBe('Inside the window')
     expect(wrapper.find('[data-testid="verdict-band"] .word').text()).toBe('Outside')
     const rows = wrapper.findAll('tbody tr').map((r) => r.text())
