@@ -12,14 +12,17 @@
  * built only for the few candidates the engine keeps. An estimator without a raw-number form
  * is judged on records by `scoreRecords`, as before.
  */
-import { MODULUS_RANGE } from '../tolerance'
+import { MODULUS_RANGE } from '../tolerance/corners'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
 import { MARGIN_LIMIT, scoreBand, type CompiledWindow } from '../window'
 import type { ForceWindow, ManufacturingTolerance } from '../window/schema'
 import type { Estimate, EstimateLayout, FastEstimator, FillFn } from './estimators'
 
+/** What judging reads of a family: its rules, and its envelope when the window has a footprint. */
+export type JudgedFamily = Pick<FamilyDefinition, 'rules'> & Partial<Pick<FamilyDefinition, 'envelope'>>
+
 export interface CandidateContext {
-  family: FamilyDefinition
+  family: JudgedFamily
   estimator: FastEstimator
   modulus: number
   strainLimit: number
@@ -99,7 +102,7 @@ export function scoreRecords(ctx: CandidateContext, params: Record<string, numbe
   for (let i = 0; i < rules.length; i++) if (rules[i].check(params)) return rejected('rules', -Infinity, null)
   let fpMargin: number | null = null
   if (ctx.footprint) {
-    const env = ctx.family.envelope(params)
+    const env = envelopeOf(ctx, params)
     fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
     if (fpMargin !== null && fpMargin < 0) return rejected(footprintReason(ctx.footprint, env), fpMargin, fpMargin)
   }
@@ -134,6 +137,11 @@ export function scoreRecords(ctx: CandidateContext, params: Record<string, numbe
     }
   }
   return judged(ctx, nominal, band.low, band.high, fpMargin, true)
+}
+
+function envelopeOf(ctx: CandidateContext, params: Record<string, number>): { x: number; y: number; z: number } {
+  if (!ctx.family.envelope) throw new Error('a window with a footprint needs the family\u2019s envelope to judge candidates')
+  return ctx.family.envelope(params)
 }
 
 const SIGNS = [-1, 1] as const
@@ -240,7 +248,7 @@ export class CandidateJudge {
     if (this.rulesFail(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
     let fpMargin: number | null = null
     if (ctx.footprint) {
-      const env = ctx.family.envelope(params)
+      const env = envelopeOf(ctx, params)
       this.envelopeX = env.x
       this.envelopeY = env.y
       this.envelopeZ = env.z
@@ -323,7 +331,7 @@ export class CandidateJudge {
     }
     let fpMargin: number | null = null
     if (ctx.footprint) {
-      const env = ctx.family.envelope(params)
+      const env = envelopeOf(ctx, params)
       this.envelopeX = env.x
       this.envelopeY = env.y
       this.envelopeZ = env.z

@@ -210,9 +210,15 @@ export function exactMethodOf(family: FamilyDefinition): string {
   return family.methods.some((m) => m.id === EXACT_METHOD) ? EXACT_METHOD : family.defaultMethod
 }
 
-export function estimatorFor(family: FamilyDefinition): FastEstimator {
+/** The family's dedicated estimator, or null when it has none (or not for a method it offers). */
+export function dedicatedEstimatorFor(family: Pick<FamilyDefinition, 'id' | 'methods'>): FastEstimator | null {
   const dedicated = dedicatedEstimators[family.id]
-  if (dedicated && family.methods.some((m) => m.id === dedicated.reproduces)) return dedicated
+  return dedicated && family.methods.some((m) => m.id === dedicated.reproduces) ? dedicated : null
+}
+
+export function estimatorFor(family: FamilyDefinition): FastEstimator {
+  const dedicated = dedicatedEstimatorFor(family)
+  if (dedicated) return dedicated
   const method = fastMethodOf(family)
   return {
     method,

@@ -1,16 +1,10 @@
 /**
  * The design-space map: two parameters of a family swept over the entry's allowed ranges on
- * an n × n grid, every other parameter held at the current configuration. Each cell is
- * estimated with the family's fast estimator (closed forms, or the bistable table) and, when a
- * force window is given, judged over the tolerance band exactly as search judges candidates.
- * Pure: the web worker runs it, tests call it directly.
+ * an n × n grid, every other parameter held at the current configuration. This module holds
+ * the request and answer shapes and the grid helpers the page uses; the computation itself is
+ * in designMapCompute.ts, which only the web worker (and tests) load, so that the page's
+ * bundle does not carry the estimators and the bistable table.
  */
-import { families } from '@catalog/families'
-import { estimatorFor, scoreCandidate } from '@catalog/search'
-import type { CandidateContext } from '@catalog/search/candidate'
-import { resolveTolerance } from '@catalog/tolerance'
-import { compileWindow, parseWindow } from '@catalog/window'
-import type { FamilyDefinition, MetricValue } from '@catalog/schema/types'
 
 /** Cells along each axis (issue 6: a 60 × 60 grid). */
 export const DESIGN_MAP_SIZE = 60
@@ -57,74 +51,6 @@ export interface DesignMap {
 export function linspace(min: number, max: number, n: number): number[] {
   if (n < 2) return [min]
   return Array.from({ length: n }, (_, i) => min + ((max - min) * i) / (n - 1))
-}
-
-export function familyOf(id: string): FamilyDefinition {
-  const family = families.find((f) => f.id === id)
-  if (!family) throw new Error(`unknown module family "${id}"`)
-  return family
-}
-
-function windowContext(family: FamilyDefinition, req: DesignMapRequest): { ctx: CandidateContext; keys: string[] } | null {
-  if (!req.window) return null
-  const window = parseWindow(req.window, { materialIds: [] as string[] })
-  const compiled = compileWindow(window)
-  return {
-    ctx: {
-      family,
-      estimator: estimatorFor(family),
-      modulus: req.modulus,
-      strainLimit: req.strainLimit,
-      tolerance: resolveTolerance(window.tolerance),
-      compiled,
-      // the map shows the feel over the two parameters; the footprint is search's business
-      footprint: undefined,
-      walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
-    },
-    keys: [...compiled.metrics, 'bistable'],
-  }
-}
-
-export function computeDesignMap(req: DesignMapRequest): DesignMap {
-  const started = performance.now()
-  const size = req.size ?? DESIGN_MAP_SIZE
-  const family = familyOf(req.familyId)
-  const estimator = estimatorFor(family)
-  const judging = windowContext(family, { ...req, window: req.window && typeof req.window === 'object' ? { ...(req.window as object), materials: undefined } : req.window })
-  const xs = linspace(req.x.min, req.x.max, size)
-  const ys = linspace(req.y.min, req.y.max, size)
-  const numeric = family.metrics.filter((m) => m.unit !== 'boolean').map((m) => m.key)
-  const values: Record<string, Array<number | null>> = Object.fromEntries(numeric.map((k) => [k, new Array(size * size).fill(null)]))
-  const state: CellState[] = new Array(size * size).fill('invalid')
-  const meets: boolean[] = new Array(size * size).fill(false)
-  const reasons: Array<string | null> = new Array(size * size).fill(null)
-  const params = { ...req.params }
-  for (let j = 0; j < size; j++) {
-    for (let i = 0; i < size; i++) {
-      const c = j * size + i
-      params[req.x.key] = xs[i]
-      params[req.y.key] = ys[j]
-      if (family.rules.some((r) => r.check(params))) { reasons[c] = 'rules'; continue }
-      let metrics: Record<string, MetricValue>
-      try {
-        metrics = estimator.estimate(params, req.modulus, req.strainLimit)
-      } catch {
-        reasons[c] = 'model'
-        continue
-      }
-      for (const k of numeric) {
-        const v = metrics[k]
-        values[k][c] = typeof v === 'number' && Number.isFinite(v) ? v : null
-      }
-      state[c] = metrics.bistable === false ? 'monostable' : 'ok'
-      if (judging) {
-        const score = scoreCandidate(judging.ctx, params, judging.keys)
-        meets[c] = score.ok
-        reasons[c] = score.reason
-      }
-    }
-  }
-  return { size, xs, ys, values, state, meets, reasons, hasWindow: !!judging, elapsedMs: performance.now() - started }
 }
 
 /** The cell nearest to a configuration, or null when it lies outside the map. */

@@ -1,7 +1,8 @@
 /// <reference lib="webworker" />
 /** Computes design-space maps off the page's thread (see composables/designMap.ts). */
 import '@/zod-jitless'
-import { computeDesignMap, type DesignMapRequest } from '@/composables/designMap'
+import type { DesignMapRequest } from '@/composables/designMap'
+import { computeDesignMap } from '@/composables/designMapCompute'
 
 self.onmessage = (event: MessageEvent<{ id: number; request: DesignMapRequest }>) => {
   const { id, request } = event.data

@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest'
+import { families } from '@catalog/families'
 import { estimatorFor } from '@catalog/search'
-import { cellOf, computeDesignMap, familyOf, linspace, snapToStep } from '@/composables/designMap'
+import { cellOf, linspace, snapToStep } from '@/composables/designMap'
+import { computeDesignMap, familyOf, mapEstimatorOf } from '@/composables/designMapCompute'
+import { mapFamilies } from '@/composables/designMapFamilies'
 
 const SWITCH = { span: 60, apexHeight: 2.1, thickness: 0.7, depth: 6, postLength: 0 }
 const PETG = { modulus: 2000, strainLimit: 0.02 }
@@ -21,7 +24,7 @@ describe('computeDesignMap (bistable-beam, apex height × thickness)', () => {
   })
 
   it('gives each cell the fast estimate at its parameters', () => {
-    const estimator = estimatorFor(familyOf('bistable-beam'))
+    const estimator = mapEstimatorOf(familyOf('bistable-beam'))
     for (const [i, j] of [[30, 30], [55, 10], [45, 50]]) {
       const expected = estimator.estimate({ ...SWITCH, apexHeight: map.xs[i], thickness: map.ys[j] }, PETG.modulus, PETG.strainLimit)
       expect(map.values.peakForce[j * 60 + i]).toBe(expected.peakForce)
@@ -60,6 +63,27 @@ describe('computeDesignMap (bistable-beam, apex height × thickness)', () => {
     const plain = sweep()
     expect(plain.hasWindow).toBe(false)
     expect(plain.meets.some(Boolean)).toBe(false)
+  })
+})
+
+describe('the map\u2019s families', () => {
+  it('are the registry\u2019s families, with the same parameters, rules, metrics and methods', () => {
+    expect(mapFamilies.map((f) => f.id)).toEqual(families.map((f) => f.id))
+    for (const family of families) {
+      const light = familyOf(family.id)
+      expect(light.params).toBe(family.params)
+      expect(light.rules).toBe(family.rules)
+      expect(light.metrics).toBe(family.metrics)
+      expect(light.methods).toBe(family.methods)
+    }
+  })
+
+  it('each have the fast estimator search uses', () => {
+    for (const family of families) expect(mapEstimatorOf(familyOf(family.id))).toBe(estimatorFor(family))
+  })
+
+  it('refuse an unknown family by name', () => {
+    expect(() => familyOf('made-up')).toThrow(/unknown module family "made-up"/)
   })
 })
 
