@@ -2,7 +2,7 @@
  * Sign-up, sign-in, sign-out and token checks. Tokens are HS256 JWTs carrying the user id,
  * the user's tokenVersion (bumped on a role change) and a jti (listed when signed out).
  */
-import { randomUUID } from 'node:crypto'
+import { createSecretKey, randomUUID, type KeyObject } from 'node:crypto'
 import jwt from 'jsonwebtoken'
 import { Op } from 'sequelize'
 import { z } from 'zod'
@@ -108,9 +108,17 @@ export async function signIn(context: AppContext, body: unknown): Promise<Sessio
   return { token: issueToken(context, user), user: toUserView(user) }
 }
 
+// jsonwebtoken turns a string secret into a key object on every call; once per config is enough
+const secretKeys = new WeakMap<AppContext['config'], KeyObject>()
+function secretKey(context: AppContext): KeyObject {
+  let key = secretKeys.get(context.config)
+  if (!key) secretKeys.set(context.config, (key = createSecretKey(Buffer.from(context.config.jwtSecret, 'utf8'))))
+  return key
+}
+
 function verifyClaims(context: AppContext, token: string): Claims {
   try {
-    const claims = jwt.verify(token, context.config.jwtSecret, { algorithms: [JWT_ALGORITHM] })
+    const claims = jwt.verify(token, secretKey(context), { algorithms: [JWT_ALGORITHM] })
     if (typeof claims === 'string' || !claims.sub || !claims.jti || typeof claims.ver !== 'number' || typeof claims.exp !== 'number') {
       throw new Error('token is missing claims')
     }
