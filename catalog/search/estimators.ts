@@ -130,11 +130,22 @@ function bistableFill(p: Record<string, number>, E: number, limit: number, out: 
   bistableMaterial.strainLimit = limit
   const e = estimateBistable(bistableGeometry, bistableMaterial)
   if (!e) return false
-  for (let i = 0; i < BISTABLE_LAYOUT.keys.length; i++) {
-    const v = e[BISTABLE_LAYOUT.keys[i]]
-    out[i] = typeof v === 'boolean' ? (v ? 1 : 0) : v === null ? NaN : (v as number)
-  }
+  // named reads in BISTABLE_LAYOUT's order (a keyed loop over the record is slower)
+  out[0] = slotValue(e.peakForce)
+  out[1] = slotValue(e.valleyForce)
+  out[2] = slotValue(e.unstablePosition)
+  out[3] = slotValue(e.secondStablePosition)
+  out[4] = slotValue(e.energyIn)
+  out[5] = slotValue(e.energyBarrier)
+  out[6] = slotValue(e.bistable)
+  out[7] = slotValue(e.maxStrain)
+  out[8] = slotValue(e.strainLimit)
+  out[9] = slotValue(e.safetyFactor)
   return true
+}
+
+function slotValue(v: MetricValue | undefined): number {
+  return typeof v === 'number' ? v : typeof v === 'boolean' ? (v ? 1 : 0) : NaN
 }
 
 const nanIfNull = (v: number | null) => (v === null ? NaN : v)
