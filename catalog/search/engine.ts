@@ -150,21 +150,57 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     options.onProgress?.({ done, total: units.length, considered: tally.considered, phase })
 
   const accepted: Scored[] = []
+  // the best `limit` accepted so far over the units done (what bestOf(accepted) would keep)
+  const best = new BestList(limit)
   for (let u = 0; u < units.length; u++) {
     const unit = units[u]
     const grid = entryGrid(unit.family, unit.entry, rules, budget)
     if (grid.problem) { tally.unprintable.push(`${unit.entry.name}: ${grid.problem}`); continue }
     const ctx = contextOf(unit, window, compiled)
     const judge = new CandidateJudge(ctx, keys)
-    const seeds: Scored[] = []
-    const mine = new BestList(unit, limit)
+    const mine = new BestList(limit)
     const keep = new UnitKeeper(unit, judge)
+    // rank key of the candidate the judge holds: the bands, then the envelope when needed
+    let m = 0
+    let sr = 0
+    let area = 0
+    let volume = 0
+    const bands = () => {
+      m = marginRank(judge.windowMargin)
+      sr = safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)
+    }
+    const envelope = (params: Record<string, number>) => {
+      if (ctx.footprint) {
+        area = judge.envelopeX * judge.envelopeY
+        volume = area * judge.envelopeZ
+      } else {
+        const env = unit.family.envelope(params)
+        area = env.x * env.y
+        volume = env.x * env.y * env.z
+      }
+    }
+    const offer = (params: Record<string, number>) => {
+      bands()
+      if (mine.outOnBands(m, sr)) return
+      envelope(params)
+      const at = mine.place(m, sr, area, volume, judge.windowMargin)
+      if (at >= limit || mine.holds(at, params, m, sr, area, volume, judge.windowMargin)) return
+      mine.insert(at, keep.scored(params), m, sr, area, volume)
+    }
+    /** Whether the candidate (bounded by the judge) could still enter this unit's list and the answer so far. */
+    const couldRank = (params: Record<string, number>) => {
+      bands()
+      if (mine.outOnBands(m, sr) || best.outOnBands(m, sr)) return false
+      envelope(params)
+      return !(mine.full && mine.place(m, sr, area, volume, judge.windowMargin) >= limit) && !(best.full && best.place(m, sr, area, volume, judge.windowMargin) >= limit)
+    }
+    const seeds: Scored[] = []
     // The judge holds the verdict of `params`; a Scored (records, envelope) is built only for
     // the few candidates kept: a seed, the nearest miss, or one of the unit's best.
     const consider = (params: Record<string, number>) => {
       tally.considered++
       keep.reset()
-      if (judge.ok) mine.offer(params, judge, keep)
+      if (judge.ok) offer(params)
       else {
         tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
         if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)
@@ -182,12 +218,13 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     const params = cursor.params
     while (cursor.next()) {
       if (++sinceYield % YIELD_EVERY === 0) yield
-      // Once this unit already fills the answer and the seeds, a candidate whose nominal
-      // estimate bounds it out of both cannot change the answer (its band only ranks it lower,
-      // and the reasons and nearest miss only explain an empty answer): it is counted, not banded.
-      if (mine.full && seeds.length >= REFINE_SEEDS) {
+      // Once this unit's list or the answer so far is full, and the seeds are, a candidate
+      // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
+      // answer (its band only ranks it lower; the reasons and nearest miss only explain an
+      // empty answer): it is counted, not banded.
+      if (seeds.length >= REFINE_SEEDS && (mine.full || best.full)) {
         const couldBeOk = judge.bound(params)
-        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !mine.couldEnter(params, judge))) {
+        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !couldRank(params))) {
           tally.considered++
           continue
         }
@@ -203,10 +240,11 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       if (found.ok) {
         judge.judge(found.params)
         keep.reset()
-        mine.offer(found.params, judge, keep)
+        offer(found.params)
       }
     }
     accepted.push(...mine.items)
+    best.merge(mine)
     progress(u + 1, 'sampling')
     yield
   }
@@ -248,18 +286,17 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
 }
 
 /**
- * The n best of one unit by rank, each parameter set once, kept as candidates are offered:
- * the same as bestOf over every accepted candidate in the order offered (the sort is stable,
- * so of equal keys the earlier stays ahead, and a repeated parameter set has an equal key),
- * without holding them all. The envelope is looked up only when the margin and safety bands
- * do not already rule a candidate out of a full list.
+ * The n best by rank, each parameter set once, kept as candidates are offered: the same as
+ * bestOf over every candidate in the order offered (the sort is stable, so of equal keys the
+ * earlier stays ahead, and a repeated parameter set has an equal key), without holding them
+ * all. Keys are rankKey's four numbers, then the window margin.
  */
 class BestList {
   readonly items: Scored[] = []
   /** The rank keys of the items, four numbers each (rankKey). */
-  private readonly keys: Float64Array
+  readonly keys: Float64Array
 
-  constructor(private readonly unit: Unit, private readonly n: number) {
+  constructor(readonly n: number) {
     this.keys = new Float64Array(4 * (n + 1))
   }
 
@@ -267,60 +304,53 @@ class BestList {
     return this.items.length >= this.n
   }
 
-  /** Where the candidate the judge holds would go (n or more: it would not enter); sets area and volume. */
-  private placeOf(params: Record<string, number>, judge: CandidateJudge, m: number, s: number): number {
-    const items = this.items
-    const keys = this.keys
-    const last = items.length - 1
-    if (items.length >= this.n && (m > keys[4 * last] || (m === keys[4 * last] && s > keys[4 * last + 1]))) return this.n
-    if (judge.ctx.footprint) {
-      this.area = judge.envelopeX * judge.envelopeY
-      this.volume = this.area * judge.envelopeZ
-    } else {
-      const env = this.unit.family.envelope(params)
-      this.area = env.x * env.y
-      this.volume = env.x * env.y * env.z
-    }
-    const { area, volume } = this
-    // the place a stable sort gives it: after every item that does not rank below it
+  /** A full list whose worst item already ranks ahead on the margin and safety bands alone. */
+  outOnBands(m: number, s: number): boolean {
+    const o = 4 * (this.items.length - 1)
+    return this.items.length >= this.n && (m > this.keys[o] || (m === this.keys[o] && s > this.keys[o + 1]))
+  }
+
+  /** The place a stable sort gives this key, after every item that does not rank below it; n or more: it does not enter. */
+  place(m: number, s: number, area: number, volume: number, windowMargin: number): number {
+    const { items, keys } = this
     let at = items.length
     while (at > 0) {
       const o = 4 * (at - 1)
-      const d = keys[o] !== m ? keys[o] - m : keys[o + 1] !== s ? keys[o + 1] - s : keys[o + 2] !== area ? keys[o + 2] - area : keys[o + 3] !== volume ? keys[o + 3] - volume : judge.windowMargin - items[at - 1].score.windowMargin
+      const d = keys[o] !== m ? keys[o] - m : keys[o + 1] !== s ? keys[o + 1] - s : keys[o + 2] !== area ? keys[o + 2] - area : keys[o + 3] !== volume ? keys[o + 3] - volume : windowMargin - items[at - 1].score.windowMargin
       if (!(d > 0)) break
       at--
     }
     return at
   }
 
-  private area = 0
-  private volume = 0
-
-  /** Whether a candidate with the judge's (bounding) margins could enter the list. */
-  couldEnter(params: Record<string, number>, judge: CandidateJudge): boolean {
-    return this.placeOf(params, judge, marginRank(judge.windowMargin), safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)) < this.n
+  /** Whether the same parameter set sits just ahead of `at` among the equal keys (where a repeat would be). */
+  holds(at: number, params: Record<string, number>, m: number, s: number, area: number, volume: number, windowMargin: number): boolean {
+    for (let i = at - 1; i >= 0 && sameRank(this.keys, i, m, s, area, volume) && this.items[i].score.windowMargin === windowMargin; i--) {
+      if (sameParams(this.items[i].params, params)) return true
+    }
+    return false
   }
 
-  /** Offers the candidate the judge has just judged (ok); `keep` builds its Scored if it enters. */
-  offer(params: Record<string, number>, judge: CandidateJudge, keep: UnitKeeper): void {
-    const items = this.items
-    const keys = this.keys
-    const m = marginRank(judge.windowMargin)
-    const s = safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)
-    const at = this.placeOf(params, judge, m, s)
-    if (at >= this.n) return
-    const { area, volume } = this
-    // a parameter set offered again has the same key, so it sits just ahead among the equal ones
-    for (let i = at - 1; i >= 0 && sameRank(keys, i, m, s, area, volume) && items[i].score.windowMargin === judge.windowMargin; i--) {
-      if (sameParams(items[i].params, params)) return
-    }
+  insert(at: number, item: Scored, m: number, s: number, area: number, volume: number): void {
+    const { items, keys } = this
     keys.copyWithin(4 * (at + 1), 4 * at, 4 * items.length)
-    items.splice(at, 0, keep.scored(params))
+    items.splice(at, 0, item)
     keys[4 * at] = m
     keys[4 * at + 1] = s
     keys[4 * at + 2] = area
     keys[4 * at + 3] = volume
     if (items.length > this.n) items.pop()
+  }
+
+  /** Merges another list's items after this one's (a later unit's): bestOf over the concatenation. */
+  merge(other: BestList): void {
+    for (let i = 0; i < other.items.length; i++) {
+      const o = 4 * i
+      const item = other.items[i]
+      const k = other.keys
+      const at = this.place(k[o], k[o + 1], k[o + 2], k[o + 3], item.score.windowMargin)
+      if (at < this.n) this.insert(at, item, k[o], k[o + 1], k[o + 2], k[o + 3])
+    }
   }
 }
 
