@@ -356,9 +356,24 @@ export class CandidateJudge {
   score(params: Record<string, number>): CandidateScore {
     if (!this.fill) return scoreRecords(this.ctx, params, this.keys)
     this.judge(params)
+    return this.scoreJudged()
+  }
+
+  /**
+   * The full score of the candidate judge() or judgeBounded() has just judged (not after
+   * bound() alone), built from the raw numbers without estimating again; the nominal record
+   * is the estimator's own record form of the same numbers.
+   */
+  scoreJudged(): CandidateScore {
+    if (!this.fill) return this.recordScore!
     const base = { ok: this.ok, reason: this.reason, windowMargin: this.windowMargin, strainMargin: this.strainMargin, footprintMargin: this.footprintMargin, objective: this.objective }
     if (this.stage < Stage.Nominal) return { ...base, nominal: null, low: null, high: null, banded: false }
-    const nominal = this.ctx.estimator.estimate(params, this.ctx.modulus, this.ctx.strainLimit)
+    const layout = this.layout!
+    const nominal: Record<string, MetricValue> = {}
+    for (let i = 0; i < layout.keys.length; i++) {
+      const v = this.nominal[i]
+      nominal[layout.keys[i]] = layout.booleans[i] ? v === 1 : Number.isNaN(v) ? null : v
+    }
     if (this.stage === Stage.Nominal) return { ...base, nominal, low: nominal, high: nominal, banded: false }
     const low: Record<string, MetricValue> = { ...nominal }
     const high: Record<string, MetricValue> = { ...nominal }
@@ -459,7 +474,11 @@ export class CandidateJudge {
     return false
   }
 
+  /** The record path's last score (estimators without a raw-number form). */
+  private recordScore: CandidateScore | null = null
+
   private take(s: CandidateScore): boolean {
+    this.recordScore = s
     this.ok = s.ok
     this.reason = s.reason
     this.windowMargin = s.windowMargin

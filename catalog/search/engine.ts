@@ -366,8 +366,8 @@ function sameParams(a: Record<string, number>, b: Record<string, number>): boole
 }
 
 /**
- * Builds the Scored of the candidate being considered at most once (the judge scores it
- * again to get the records); no closure per candidate.
+ * Builds the Scored of the candidate being considered at most once, from the judge's raw
+ * numbers; no closure per candidate.
  */
 class UnitKeeper {
   private params: Record<string, number> | null = null
@@ -381,10 +381,11 @@ class UnitKeeper {
     this.kept = null
   }
 
+  /** The Scored of `params`, which the judge has just judged. */
   scored(params: Record<string, number>): Scored {
     if (this.kept && this.params === params) return this.kept
     this.params = params
-    this.kept = scored(this.unit, params, this.judge.score(params))
+    this.kept = scored(this.unit, params, this.judge.scoreJudged())
     return this.kept
   }
 }

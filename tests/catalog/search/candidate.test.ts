@@ -140,3 +140,19 @@ describe('CandidateJudge', () => {
     })
   }
 })
+
+describe('search with a family that has no dedicated estimator', () => {
+  it('judges on records through the family\u2019s own fast method and finds what the dedicated estimator finds', async () => {
+    const { DEMO_SHELF, searchShelfSync } = await import('../../../catalog/search')
+    const guide = families.find((f) => f.id === 'parallel-guide')!
+    const copy: FamilyDefinition = { ...guide, id: 'made-up-guide' }
+    expect(estimatorFor(copy).fill).toBeUndefined()
+    const entry = DEMO_SHELF.find((e) => e.familyId === 'parallel-guide')!
+    const window = { kind: 'guide', stiffness: { min: 0.5, max: 4 }, travel: { min: 1 }, limit: 8 }
+    const expected = searchShelfSync(window, [entry], { confirm: 0 })
+    const observed = searchShelfSync(window, [{ ...entry, familyId: 'made-up-guide' }], { confirm: 0, families: [...families, copy] })
+    expect(expected.results.length).toBeGreaterThan(0)
+    expect(observed.results.map((r) => r.params)).toEqual(expected.results.map((r) => r.params))
+    expect(observed.considered).toBe(expected.considered)
+  })
+})
