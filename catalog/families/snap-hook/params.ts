@@ -1,5 +1,5 @@
 import type { CrossRule, ParamSpec } from '../../schema/types'
-import { headFitProblem } from './geometry'
+import { headFitProblem } from './layout'
 
 /** Parameters of the cantilever snap-fit hook; lengths mm, angles degrees. */
 export const params: ParamSpec[] = [
