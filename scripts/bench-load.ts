@@ -5,8 +5,8 @@
  * searches, STL downloads, sign-ins) run beside it, once with the compute pool and once with
  * every computation on the request thread, to show what the pool buys.
  *
- *   npm run bench:load                      # 10 s per scenario
- *   npm run bench:load -- --duration 5      # shorter
+ *   npm run bench:load                              # 3 passes, 5 s per scenario, medians
+ *   npm run bench:load -- --duration 10 --runs 5    # longer
  *
  * Targets (issue 8, this 2-core machine): shelf list ≥ 1000 req/s at 50 connections with
  * p99 < 100 ms and no errors. Reports, asserts nothing; README.md "Performance" keeps the
@@ -15,7 +15,7 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { createServer } from 'node:net'
-import { tmpdir } from 'node:os'
+import { availableParallelism, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import autocannon, { type Options, type Result } from 'autocannon'
 
@@ -166,12 +166,16 @@ async function mixed(url: string, f: Fixture, duration: number, label: string): 
   return [row(`shelf list beside heavy requests (${label})`, 50, shelf), ...others.map((r, i) => row(`  beside: ${heavy[i].name}`, heavy[i].connections, r))]
 }
 
-async function main(): Promise<void> {
-  const at = process.argv.indexOf('--duration')
-  const duration = at > 0 ? Number(process.argv[at + 1]) : 10
-  if (!Number.isFinite(duration) || duration <= 0) throw new Error('usage: npm run bench:load [-- --duration <seconds>]')
-  const rows: Row[] = []
+function option(name: string, fallback: number): number {
+  const at = process.argv.indexOf(name)
+  const value = at > 0 ? Number(process.argv[at + 1]) : fallback
+  if (!Number.isFinite(value) || value <= 0) throw new Error('usage: npm run bench:load [-- --duration <seconds>] [--runs <n>]')
+  return value
+}
 
+/** One pass over every scenario: a fresh server with the compute pool, then one without. */
+async function pass(duration: number): Promise<Row[]> {
+  const rows: Row[] = []
   const pooled = await startServer({})
   try {
     const f = await fixture(pooled.url)
@@ -185,7 +189,7 @@ async function main(): Promise<void> {
     await pooled.stop()
   }
 
-  // the same mix with every evaluation and STL on the request thread (searches keep their own threads)
+  // the same mix with every evaluation, STL and bcrypt on the request thread (searches keep their own threads)
   const single = await startServer({ FLEXSHELF_COMPUTE_THREADS: '0' })
   try {
     const f = await fixture(single.url)
@@ -194,8 +198,29 @@ async function main(): Promise<void> {
   } finally {
     await single.stop()
   }
+  return rows
+}
 
-  console.log(`\nFlexshelf load benchmark, ${duration} s per scenario, loopback, Node ${process.version}\n`)
+const median = (values: number[]) => {
+  const sorted = [...values].sort((a, b) => a - b)
+  const mid = sorted.length >> 1
+  return sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2
+}
+
+async function main(): Promise<void> {
+  const duration = option('--duration', 5)
+  const runs = option('--runs', 3)
+  const passes: Row[][] = []
+  for (let i = 0; i < runs; i++) {
+    passes.push(await pass(duration))
+    console.error(`pass ${i + 1} of ${runs} done`)
+  }
+  // each cell is the median over the passes
+  const rows = passes[0].map((first, r) => {
+    const cell = (k: keyof Row) => median(passes.map((p) => p[r][k] as number))
+    return { ...first, 'req/s': cell('req/s'), 'p50 ms': cell('p50 ms'), 'p99 ms': cell('p99 ms'), errors: cell('errors') }
+  })
+  console.log(`\nFlexshelf load benchmark: medians of ${runs} passes, ${duration} s per scenario, loopback, ${availableParallelism()} cores, Node ${process.version}\n`)
   console.log(table(rows))
 }
 
