@@ -12,10 +12,8 @@
  * (proportional), centred in each end.
  */
 import type { Geom2, Geom3 } from '@jscad/modeling/src/geometries/types'
-import jscad from '@jscad/modeling'
-import { box, extrudeOutline, hole } from '../../geometry/outline'
+import { box, extrudeOutline, hole, polygon, type Point } from '../../geometry/outline'
 
-const { primitives } = jscad
 
 export const NOTCH_ARM = 10
 export const HOLE_DIAMETER = 3.2
@@ -23,6 +21,26 @@ export const HOLE_DIAMETER = 3.2
 export const NOTCH_SEGMENTS = 192
 /** The slot walls run this far past the block surface so the subtraction leaves no skin. */
 const CUT_OVERRUN = 1
+/**
+ * Least distance (mm) between a notch-circle vertex and a block face: a vertex lying on the
+ * face leaves a zero-length edge after the subtraction and an open mesh, so it is moved
+ * this far off the face, on its own side (well below print resolution).
+ */
+export const FACE_CLEARANCE = 1e-3
+
+/** The notch circle as a polygon whose vertices keep FACE_CLEARANCE from the faces y = ±h/2. */
+function notchCircle(radius: number, centreY: number, faceY: number): Geom2 {
+  const points: Point[] = []
+  for (let k = 0; k < NOTCH_SEGMENTS; k++) {
+    const a = (2 * Math.PI * k) / NOTCH_SEGMENTS
+    let y = centreY + radius * Math.sin(a)
+    for (const face of [faceY, -faceY]) {
+      if (Math.abs(y - face) < FACE_CLEARANCE) y = face + (y >= face ? FACE_CLEARANCE : -FACE_CLEARANCE)
+    }
+    points.push([radius * Math.cos(a), y])
+  }
+  return polygon(points)
+}
 
 export function layout(params: Record<string, number>) {
   const { radius: R, neckThickness: t, blockThickness: h } = params
@@ -48,7 +66,7 @@ export function build(params: Record<string, number>): Geom3 {
   const L = layout(params)
   const cuts: Geom2[] = []
   for (const s of [-1, 1]) {
-    cuts.push(primitives.circle({ radius: R, center: [0, s * L.centreY], segments: NOTCH_SEGMENTS }))
+    cuts.push(notchCircle(R, s * L.centreY, h / 2))
     if (L.slot) {
       const outer = s * (h / 2 + CUT_OVERRUN)
       cuts.push(box(-R, Math.min(s * L.centreY, outer), R, Math.max(s * L.centreY, outer)))
