@@ -31,6 +31,8 @@ export const MAX_RATIO = 15
 export const MAX_RISE = 0.2
 export const MIN_SLENDERNESS = 20
 export const MAX_POST = 0.5
+/** Shorter posts are below one printed layer or line (common practice): they cannot be made, and the beam mesh would degenerate. */
+export const MIN_POST = 0.1
 
 const fmt = (v: number) => String(Number(v.toPrecision(4)))
 
@@ -55,6 +57,12 @@ export const rules: CrossRule[] = [
     fields: ['thickness', 'span'],
     check: (p) => (p.thickness > p.span / MIN_SLENDERNESS
       ? `thickness must be well below the span: at most 1/${MIN_SLENDERNESS} of it (${fmt(p.span / MIN_SLENDERNESS)} mm for a ${fmt(p.span)} mm span), so the beam bends as a slender beam`
+      : null),
+  },
+  {
+    fields: ['postLength'],
+    check: (p) => (p.postLength > 0 && p.postLength < MIN_POST
+      ? `postLength must be 0 (ends clamped to the frame) or at least ${MIN_POST} mm: a shorter post cannot be printed apart from the frame`
       : null),
   },
   {
