@@ -43,21 +43,21 @@ function addReadRoutes(router: Router, param: string) {
     const { target, raw } = opened(req)
     return { target, input: resolveFor(target, raw), configuration: { id: opened(req).view.id, name: opened(req).view.name } }
   }
-  router.get(`/:${param}/check`, allow('engineer'), function check(req: Request, res: Response) {
+  router.get(`/:${param}/check`, allow('engineer'), async function check(req: Request, res: Response) {
     const { target, input: resolved } = input(req)
-    res.json(checkTarget(target, resolved))
+    res.json(await checkTarget(target, resolved))
   })
   router.get(`/:${param}/stl`, allow('engineer'), async function stl(req: Request, res: Response) {
     const { target, input: resolved } = input(req)
     sendFile(res, await stlFile(target, resolved))
   })
-  router.get(`/:${param}/curve.csv`, allow('engineer'), function curveCsv(req: Request, res: Response) {
+  router.get(`/:${param}/curve.csv`, allow('engineer'), async function curveCsv(req: Request, res: Response) {
     const { target, input: resolved } = input(req)
-    sendFile(res, curveCsvFile(target, resolved))
+    sendFile(res, await curveCsvFile(target, resolved))
   })
-  router.get(`/:${param}/datasheet`, allow('engineer'), function datasheet(req: Request, res: Response) {
+  router.get(`/:${param}/datasheet`, allow('engineer'), async function datasheet(req: Request, res: Response) {
     const { target, input: resolved, configuration } = input(req)
-    sendDatasheet(res, target, resolved, { configuration })
+    await sendDatasheet(res, target, resolved, { configuration })
   })
   router.get(`/:${param}/datasheet.pdf`, allow('engineer'), async function datasheetPdf(req: Request, res: Response) {
     const { target, input: resolved, configuration } = input(req)

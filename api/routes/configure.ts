@@ -27,7 +27,7 @@ export function configureRouter(context: AppContext): Router {
 
   async function check(req: Request<{ id: string }>, res: Response) {
     const { target, input } = await prepare(req, parseBody(configurationBody, req.body))
-    res.json(checkTarget(target, input))
+    res.json(await checkTarget(target, input))
   }
 
   async function stl(req: Request<{ id: string }>, res: Response) {
@@ -37,12 +37,12 @@ export function configureRouter(context: AppContext): Router {
 
   async function curveCsv(req: Request<{ id: string }>, res: Response) {
     const { target, input } = await fromQuery(req)
-    sendFile(res, curveCsvFile(target, input))
+    sendFile(res, await curveCsvFile(target, input))
   }
 
   async function datasheet(req: Request<{ id: string }>, res: Response) {
     const { target, input } = await fromQuery(req)
-    sendDatasheet(res, target, input)
+    await sendDatasheet(res, target, input)
   }
 
   async function datasheetPdf(req: Request<{ id: string }>, res: Response) {

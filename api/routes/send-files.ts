@@ -28,12 +28,12 @@ export function sendFile(res: Response, file: DownloadFile): void {
   res.send(file.body)
 }
 
-export function sendDatasheet(res: Response, target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): void {
-  res.json({ datasheet: buildDatasheet(target, input, options) })
+export async function sendDatasheet(res: Response, target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): Promise<void> {
+  res.json({ datasheet: await buildDatasheet(target, input, options) })
 }
 
 export async function sendDatasheetPdf(res: Response, target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): Promise<void> {
-  const sheet = buildDatasheet(target, input, options)
+  const sheet = await buildDatasheet(target, input, options)
   const pdf = await renderDatasheetPdf(sheet)
   attach(res, sheet.fileName, 'application/pdf', sheet.notices)
   res.send(pdf)

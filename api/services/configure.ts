@@ -6,12 +6,13 @@
 import { Op } from 'sequelize'
 import type { Evaluation, FamilyDefinition } from '../../catalog'
 import { checkPrintability, type PrintabilityReport } from '../../catalog/printability'
-import { DEFAULT_TOLERANCE_NOTE, toleranceBand, type ToleranceBand } from '../../catalog/tolerance'
+import { DEFAULT_TOLERANCE_NOTE, type ToleranceBand } from '../../catalog/tolerance'
 import { judgeWithBand, type Judgement } from '../../catalog/window'
 import type { AppContext } from '../context'
 import type { Entry, EntryRevision, ParamRanges, ParamValues, User } from '../db'
 import { notFound } from '../errors'
 import { visibleTo } from './entries'
+import { compute } from './compute-pool'
 import { findFamily } from './families'
 import { listMaterials, type MaterialView } from './materials'
 import { resolveConfiguration, type ConfigurationInput, type RawConfiguration } from './configuration-input'
@@ -73,8 +74,9 @@ export function numericParams(family: FamilyDefinition, evaluation: Pick<Evaluat
   return out
 }
 
-export function evaluateTarget(target: ConfigureTarget, input: ConfigurationInput): ToleranceBand {
-  return toleranceBand(target.family, input.params, {
+/** The nominal evaluation and its tolerance corners, on the compute pool (five solves for the nonlinear methods). */
+export function evaluateTarget(target: ConfigureTarget, input: ConfigurationInput): Promise<ToleranceBand> {
+  return compute.toleranceBand(target.family.id, input.params, {
     method: input.method ?? undefined,
     ranges: target.ranges,
     materials: target.materials,
@@ -107,9 +109,9 @@ export interface CheckResult {
 
 export const PRINTABILITY_BASIS = 'common practice (FDM rules of thumb, not a published standard)'
 
-export function checkTarget(target: ConfigureTarget, input: ConfigurationInput): CheckResult {
+export async function checkTarget(target: ConfigureTarget, input: ConfigurationInput): Promise<CheckResult> {
   const { entry, family } = target
-  const band = evaluateTarget(target, input)
+  const band = await evaluateTarget(target, input)
   const evaluation = band.nominal
   const numeric = numericParams(family, evaluation)
   const envelope = family.envelope(numeric)

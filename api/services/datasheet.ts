@@ -65,7 +65,7 @@ export interface Datasheet {
   }
   metrics: DatasheetMetric[]
   verdict: { window: ForceWindow; nominal: Judgement; band: Judgement } | null
-  printability: ReturnType<typeof checkTarget>['printability']
+  printability: Awaited<ReturnType<typeof checkTarget>>['printability']
   envelope: { x: number; y: number; z: number }
   warnings: string[]
   cautions: string[]
@@ -133,9 +133,9 @@ export interface DatasheetOptions {
   now?: Date
 }
 
-export function buildDatasheet(target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): Datasheet {
+export async function buildDatasheet(target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): Promise<Datasheet> {
   const { entry, family } = target
-  const check = checkTarget(target, input)
+  const check = await checkTarget(target, input)
   const { evaluation, band } = check
   const now = options.now ?? new Date()
   const method = family.methods.find((m) => m.id === evaluation.method)!

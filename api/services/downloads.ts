@@ -6,6 +6,7 @@ import Papa from 'papaparse'
 import { validateParams } from '../../catalog'
 import { compute } from './compute-pool'
 import type { ConfigurationInput } from './configuration-input'
+import type { ToleranceBand } from '../../catalog/tolerance'
 import { evaluateTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
 
@@ -43,8 +44,12 @@ function column(label: string, unit: string): string {
  * band's low and high side when a tolerance is given. Text cells that a spreadsheet would
  * run as a formula (= + - @ tab CR) get a leading apostrophe (papaparse escapeFormulae).
  */
-export function curveCsvFile(target: ConfigureTarget, input: ConfigurationInput): DownloadFile {
-  const band = evaluateTarget(target, input)
+export async function curveCsvFile(target: ConfigureTarget, input: ConfigurationInput): Promise<DownloadFile> {
+  return curveCsvOf(target, input, await evaluateTarget(target, input))
+}
+
+/** The CSV file of an evaluated band (the writer alone, so it can be checked on any curve). */
+export function curveCsvOf(target: ConfigureTarget, input: ConfigurationInput, band: ToleranceBand): DownloadFile {
   const { curve } = band.nominal
   const { displacement: dAxis, force: fAxis } = curve.axes
   const fields = [column(dAxis.label, dAxis.unit), column(fAxis.label, fAxis.unit)]

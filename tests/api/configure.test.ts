@@ -7,12 +7,12 @@ import Papa from 'papaparse'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { evaluate, getFamily, type FamilyDefinition } from '../../catalog'
-import { DEFAULT_TOLERANCE } from '../../catalog/tolerance'
+import { DEFAULT_TOLERANCE, toleranceBand } from '../../catalog/tolerance'
 import type { Entry } from '../../api/db'
 import { RETIRED_NOTICE, configureTarget } from '../../api/services/configure'
 import { resolveConfiguration } from '../../api/services/configuration-input'
 import { DATASHEET_CAUTIONS } from '../../api/services/datasheet'
-import { curveCsvFile } from '../../api/services/downloads'
+import { curveCsvOf } from '../../api/services/downloads'
 import { listMaterials } from '../../api/services/materials'
 import { bearer, demoEmail, signInAs, startTestApp, type TestApp } from './helpers'
 
@@ -296,7 +296,8 @@ describe('the curve CSV writer', () => {
       const target = { ...(await configureTarget(t.context, entry)), family: hostile }
       const materials = await listMaterials(t.context)
       const input = resolveConfiguration({ params: {} }, { family: hostile, defaults: entry.defaultParams, releasedMaterials: entry.materials, ranges: entry.ranges, materials })
-      const observed = Papa.parse<string[]>(String(curveCsvFile(target, input).body).trim()).data[0]
+      const band = toleranceBand(hostile, input.params, { ranges: target.ranges, materials: target.materials })
+      const observed = Papa.parse<string[]>(String(curveCsvOf(target, input, band).body).trim()).data[0]
       expect(observed.slice(0, 2)).toEqual(['\'=HYPERLINK("x")', "'@SUM(A1)"])
     })
   })
