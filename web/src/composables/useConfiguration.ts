@@ -1,11 +1,12 @@
 import { computed, onBeforeUnmount, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError, entriesApi, isAbort, type Entry, type FieldIssue } from '@/api'
+import { entriesApi, type ApiError, type Entry, type FieldIssue } from '@/api'
 import { configurationsApi, configureApi, type CheckResult, type Configuration, type SavedConfiguration, type SavedTarget } from '@/api/configure'
 import { useReferenceStore } from '@/stores/reference'
 import { curveMarkers } from './curveMarkers'
 import { allowedMaterials, initialParamModel, localIssues, paramFields, splitIssues, type ParamFormModel } from './paramForm'
 import { buildConfiguration, datasheetQuery, mergeParams, readLinkedConfiguration, settingsFrom, sortIssues, type SettingsForm } from './configurationState'
 import { applyFix, printerIssues, toleranceIssues } from './printSettings'
+import { asApiError, useLatestRequest } from './useLatestRequest'
 
 /** Where the screen's configuration comes from: an entry (with an optional link), a saved one, or a shared link. */
 export type ConfigurationSource =
@@ -13,7 +14,6 @@ export type ConfigurationSource =
   | { kind: 'saved'; entryId: string; configurationId: string }
   | { kind: 'shared'; token: string }
 
-const asApiError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
 
 /**
  * Everything the configure screen shows and edits: the entry and its family, the parameter
@@ -22,7 +22,7 @@ const asApiError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 
  */
 export function useConfiguration(source: Ref<ConfigurationSource>, options: { debounceMs?: number; check?: typeof configureApi.check } = {}) {
   const reference = useReferenceStore()
-  const check = options.check ?? configureApi.check
+  const checkRequest = options.check ?? configureApi.check
   const entry = shallowRef<Entry | null>(null)
   const saved = shallowRef<SavedConfiguration | null>(null)
   const loading = ref(true)
@@ -119,65 +119,22 @@ export function useConfiguration(source: Ref<ConfigurationSource>, options: { de
   })
 
   // the server's check, re-run after a pause in editing
-  const result = shallowRef<CheckResult | null>(null)
-  const serverIssues = ref<FieldIssue[]>([])
-  const checkError = shallowRef<ApiError | null>(null)
-  const pending = ref(false)
-  let timer: ReturnType<typeof setTimeout> | null = null
-  let inFlight: AbortController | null = null
-  let sequence = 0
-
-  async function runCheck() {
-    timer = null
-    const e = entry.value
-    const config = configuration.value
-    if (!e || !config) return
-    inFlight?.abort()
-    if (hasLocalProblems.value) {
-      sequence++ // answers to earlier edits are stale now
-      serverIssues.value = []
-      checkError.value = null
-      pending.value = false
-      return
-    }
-    const mine = ++sequence
-    const controller = new AbortController()
-    inFlight = controller
-    pending.value = true
-    try {
+  const check = useLatestRequest<CheckResult>({
+    debounceMs: options.debounceMs ?? 350,
+    prepare: () => {
+      const e = entry.value
+      const config = configuration.value
+      if (!e || !config) return null
+      if (hasLocalProblems.value) return { issues: [] }
       const t = savedTarget.value
-      const answer = t ? await configurationsApi.check(t, controller.signal) : await check(e.id, config, controller.signal)
-      if (mine !== sequence) return
-      result.value = answer
-      serverIssues.value = []
-      checkError.value = null
-    } catch (err) {
-      if (isAbort(err) || mine !== sequence) return
-      const apiError = asApiError(err)
-      serverIssues.value = apiError.issues
-      checkError.value = apiError.code === 'validation_failed' ? null : apiError
-    } finally {
-      if (mine === sequence) {
-        pending.value = false
-        inFlight = null
-      }
-    }
-  }
-
+      return { send: (signal) => (t ? configurationsApi.check(t, signal) : checkRequest(e.id, config, signal)) }
+    },
+  })
+  const { result, pending, run: runCheck, cancel } = check
+  const serverIssues = check.issues
+  const checkError = check.error
   function scheduleCheck() {
-    if (!configuration.value) return
-    if (timer) clearTimeout(timer)
-    pending.value = true
-    timer = setTimeout(runCheck, options.debounceMs ?? 350)
-  }
-
-  function cancel() {
-    if (timer) clearTimeout(timer)
-    timer = null
-    inFlight?.abort()
-    inFlight = null
-    sequence++
-    pending.value = false
+    if (configuration.value) check.schedule()
   }
 
   const sorted = computed(() => sortIssues(serverIssues.value))
