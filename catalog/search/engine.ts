@@ -13,6 +13,7 @@ import type { FamilyDefinition } from '../schema/types'
 import { resolveTolerance } from '../tolerance'
 import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, judge, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
 import { CandidateJudge, type CandidateContext, type CandidateScore } from './candidate'
+import { estimateAllowance } from './estimate-tolerance'
 import { estimatorFor, exactMethodOf } from './estimators'
 import { explainEmpty, type Tally } from './explain'
 import { marginRank, rankKey, safetyRank } from './rank'
@@ -122,14 +123,24 @@ function confirm(window: ForceWindow, compiled: CompiledWindow, s: Scored, mater
     const exact = evaluateFamily(s.unit.family, { ...s.params, material: s.unit.material.id }, { method, materials: [...materials] })
     const metrics: Record<string, number | boolean | null> = {}
     const agreement: Record<string, number> = {}
+    const allowance = estimateAllowance(s.unit.family.id, exact.metrics, s.params)
+    const tolerance: Record<string, number> = {}
+    let withinTolerance: boolean | undefined
     for (const key of compiled.metrics) {
       const value = exact.metrics[key] ?? null
       metrics[key] = value
       const fast = s.score.nominal?.[key]
-      if (typeof value === 'number' && typeof fast === 'number') agreement[key] = fast === 0 ? Math.abs(value) : (value - fast) / Math.abs(fast)
+      if (typeof value === 'number' && typeof fast === 'number') {
+        agreement[key] = fast === 0 ? Math.abs(value) : (value - fast) / Math.abs(fast)
+        if (allowance[key] !== undefined) {
+          tolerance[key] = allowance[key]
+          withinTolerance = (withinTolerance ?? true) && Math.abs(value - fast) <= allowance[key]
+        }
+      }
     }
     if (typeof exact.metrics.bistable === 'boolean') metrics.bistable = exact.metrics.bistable
-    return { method, metrics, agreement, verdict: judge(window, exact.metrics).verdict }
+    const stated = withinTolerance === undefined ? {} : { tolerance, withinTolerance }
+    return { method, metrics, agreement, ...stated, verdict: judge(window, exact.metrics).verdict }
   } catch (e) {
     return { method, metrics: null, agreement: {}, error: (e as Error).message }
   }

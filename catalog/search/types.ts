@@ -63,6 +63,10 @@ export interface Confirmation {
   metrics: Record<string, MetricValue> | null
   /** Relative difference, exact against fast estimate, per window metric. */
   agreement: Record<string, number>
+  /** Where the fast estimate states its error (the bistable table): the allowed difference per window metric, in its units. */
+  tolerance?: Record<string, number>
+  /** Whether every stated allowance holds; absent when the estimate states none. */
+  withinTolerance?: boolean
   /** The exact method's nominal verdict against the window (absent when it failed). */
   verdict?: 'inside' | 'edge' | 'outside'
   error?: string

@@ -50,7 +50,10 @@ export function describeResult(
     if (confirmed.metrics === null) text += ` The exact method (${confirmed.method}) could not confirm it: ${confirmed.error}.`
     else {
       const worst = Math.max(0, ...Object.values(confirmed.agreement).map(Math.abs))
-      text += ` The exact method (${confirmed.method}) agrees within ${worst < 0.001 ? '0.1' : Number((worst * 100).toPrecision(2))} %${confirmed.verdict === 'outside' ? ' but puts the nominal part outside the window' : ''}.`
+      text += ` The exact method (${confirmed.method}) agrees within ${worst < 0.001 ? '0.1' : Number((worst * 100).toPrecision(2))} %`
+      if (confirmed.withinTolerance === true) text += ', inside the fast table\u2019s measured error'
+      if (confirmed.withinTolerance === false) text += ', beyond the fast table\u2019s measured error: go by the exact figures'
+      text += `${confirmed.verdict === 'outside' ? ' but puts the nominal part outside the window' : ''}.`
     }
   }
   return text
