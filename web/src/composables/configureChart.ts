@@ -9,6 +9,7 @@ import type { Curve } from '@/api/types'
 import type { WindowOverlay } from '@/api/configure'
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
+import { axisName, valueAxisStyle } from './chartAxes'
 import { markerLabels, type CurveMarker } from './curveMarkers'
 import { formatNumber } from './metrics'
 
@@ -218,15 +219,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
     legend.unshift('Nominal')
   }
 
-  const axisCommon = {
-    nameLocation: 'middle',
-    nameTextStyle: { color: p.inkMuted, fontFamily, fontSize: 12 },
-    axisLine: { lineStyle: { color: p.line } },
-    axisTick: { show: false },
-    axisLabel: { color: p.inkMuted, fontFamily, fontSize: 12, formatter: (v: number) => formatNumber(v) },
-    splitLine: { lineStyle: { color: p.line, opacity: 0.55 } },
-  }
-  const name = (a: { label: string; unit: string }) => (a.unit ? `${a.label} (${a.unit})` : a.label)
+  const axisCommon = valueAxisStyle(p)
 
   return {
     backgroundColor: 'transparent',
@@ -250,8 +243,8 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
       axisPointer: { type: 'line', lineStyle: { color: p.inkMuted, type: 'dashed' } },
       valueFormatter: (v: number) => `${formatNumber(v)} ${yUnit}`,
     },
-    xAxis: { ...axisCommon, type: 'value', name: name(axes.displacement), nameGap: 32, min: xMin, max: xMax, interval: xStep, axisLabel: { ...axisCommon.axisLabel, showMaxLabel: showLastLabel(xMin, xMax, xStep) } },
-    yAxis: { ...axisCommon, type: 'value', name: name(axes.force), nameGap: 46, min: yExtent[0], max: yExtent[1], interval: niceStep(yExtent[1] - yExtent[0]) },
+    xAxis: { ...axisCommon, type: 'value', name: axisName(axes.displacement), nameGap: 32, min: xMin, max: xMax, interval: xStep, axisLabel: { ...axisCommon.axisLabel, showMaxLabel: showLastLabel(xMin, xMax, xStep) } },
+    yAxis: { ...axisCommon, type: 'value', name: axisName(axes.force), nameGap: 46, min: yExtent[0], max: yExtent[1], interval: niceStep(yExtent[1] - yExtent[0]) },
     series,
   }
 }

@@ -2,6 +2,7 @@
 import type { Curve } from '@/api/types'
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
+import { axisName, valueAxisStyle } from './chartAxes'
 import { markerLabels, type CurveMarker } from './curveMarkers'
 import { formatNumber, type ForceWindow } from './metrics'
 
@@ -18,9 +19,6 @@ function points(curve: Curve): Array<[number, number]> {
   return curve.displacement.map((x, i) => [x, curve.force[i]])
 }
 
-function axisName(axis: { label: string; unit: string }): string {
-  return axis.unit ? `${axis.label} (${axis.unit})` : axis.label
-}
 
 const symbols: Record<CurveMarker['kind'], { symbol: string; size: number }> = {
   stable: { symbol: 'circle', size: 11 },
@@ -107,14 +105,7 @@ export function curveChartOption(input: CurveChartInput): Record<string, unknown
     }
   }
 
-  const axisCommon = {
-    nameLocation: 'middle',
-    nameTextStyle: { color: p.inkMuted, fontFamily, fontSize: 12 },
-    axisLine: { lineStyle: { color: p.line } },
-    axisTick: { show: false },
-    axisLabel: { color: p.inkMuted, fontFamily, fontSize: 12, formatter: (v: number) => formatNumber(v) },
-    splitLine: { lineStyle: { color: p.line, opacity: 0.55 } },
-  }
+  const axisCommon = valueAxisStyle(p)
 
   return {
     backgroundColor: 'transparent',

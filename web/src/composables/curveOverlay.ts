@@ -7,6 +7,7 @@
 import type { AxisSpec } from '@/api/types'
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
+import { axisName, valueAxisStyle } from './chartAxes'
 import { formatNumber } from './metrics'
 
 /**
@@ -68,9 +69,6 @@ export function overlaySeries(curves: readonly OverlayCurve[], palette: Palette)
   })
 }
 
-function axisName(axis: AxisSpec): string {
-  return axis.unit ? `${axis.label} (${axis.unit})` : axis.label
-}
 
 export function overlayChartOption(input: { curves: readonly OverlayCurve[]; axes: OverlayAxes; palette: Palette }): Record<string, unknown> {
   const { axes, palette: p } = input
@@ -79,14 +77,7 @@ export function overlayChartOption(input: { curves: readonly OverlayCurve[]; axe
     // the zero-force line, drawn once, under everything
     series[0].markLine = { silent: true, symbol: 'none', label: { show: false }, lineStyle: { color: p.line, type: 'solid', width: 1 }, data: [{ yAxis: 0 }], animation: false }
   }
-  const axisCommon = {
-    nameLocation: 'middle',
-    nameTextStyle: { color: p.inkMuted, fontFamily, fontSize: 12 },
-    axisLine: { lineStyle: { color: p.line } },
-    axisTick: { show: false },
-    axisLabel: { color: p.inkMuted, fontFamily, fontSize: 12, formatter: (v: number) => formatNumber(v) },
-    splitLine: { lineStyle: { color: p.line, opacity: 0.55 } },
-  }
+  const axisCommon = valueAxisStyle(p)
   return {
     backgroundColor: 'transparent',
     animation: false,

@@ -1,6 +1,7 @@
 /** The echarts option for a design-space map, from plain data (tested without a canvas). */
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
+import { axisName } from './chartAxes'
 import type { DesignMap } from './designMap'
 import { formatNumber } from './metrics'
 
@@ -43,7 +44,6 @@ export function regionEdges(map: Pick<DesignMap, 'size' | 'meets'>): Array<[numb
   return out
 }
 
-const withUnit = (a: MapAxisInfo) => (a.unit ? `${a.label} (${a.unit})` : a.label)
 
 export function designMapOption(input: DesignMapChartInput): Record<string, unknown> {
   const { map, metric, x, y, palette: p } = input
@@ -69,7 +69,7 @@ export function designMapOption(input: DesignMapChartInput): Record<string, unkn
   const axis = (a: MapAxisInfo, data: number[]) => ({
     type: 'category',
     data: data.map((v) => formatNumber(v, 3)),
-    name: withUnit(a),
+    name: axisName(a),
     nameLocation: 'middle',
     nameGap: 30,
     nameTextStyle: { color: p.inkMuted, fontFamily, fontSize: 12 },
