@@ -34,6 +34,11 @@ export class ApiError extends Error {
   }
 }
 
+/** Any failure as an ApiError, so a view has one shape of error to show. */
+export function asApiError(e: unknown): ApiError {
+  return e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e))
+}
+
 function readIssues(details: Record<string, unknown> | null): FieldIssue[] {
   const raw = details?.issues
   if (!Array.isArray(raw)) return []

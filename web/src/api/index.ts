@@ -2,7 +2,7 @@
 import { request } from './client'
 import type { Entry, EntrySummary, EvaluateRequest, Evaluation, Family, GrantableRole, Material, Session, User } from './types'
 
-export { ApiError, isAbort, request, setAuthToken, setUnauthenticatedHandler } from './client'
+export { ApiError, asApiError, isAbort, request, setAuthToken, setUnauthenticatedHandler } from './client'
 export type { FieldIssue } from './client'
 export type * from './types'
 export { searchApi } from './search'

@@ -1,12 +1,12 @@
 import { computed, onBeforeUnmount, ref, shallowRef, watch, type Ref } from 'vue'
-import { entriesApi, type ApiError, type Entry, type FieldIssue } from '@/api'
+import { asApiError, entriesApi, type ApiError, type Entry, type FieldIssue } from '@/api'
 import { configurationsApi, configureApi, type CheckResult, type Configuration, type SavedConfiguration, type SavedTarget } from '@/api/configure'
 import { useReferenceStore } from '@/stores/reference'
 import { curveMarkers } from './curveMarkers'
 import { allowedMaterials, initialParamModel, localIssues, paramFields, splitIssues, type ParamFormModel } from './paramForm'
 import { buildConfiguration, datasheetQuery, mergeParams, readLinkedConfiguration, settingsFrom, sortIssues, type SettingsForm } from './configurationState'
 import { applyFix, printerIssues, toleranceIssues } from './printSettings'
-import { asApiError, useLatestRequest } from './useLatestRequest'
+import { useLatestRequest } from './useLatestRequest'
 
 /** Where the screen's configuration comes from: an entry (with an optional link), a saved one, or a shared link. */
 export type ConfigurationSource =

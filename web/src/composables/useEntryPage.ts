@@ -1,5 +1,5 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError, entriesApi, type Entry } from '@/api'
+import { ApiError, entriesApi, type Entry, asApiError } from '@/api'
 import { useReferenceStore } from '@/stores/reference'
 import { curveMarkers } from './curveMarkers'
 import { allowedMaterials, initialParamModel, paramFields, splitIssues, type ParamFormModel } from './paramForm'
@@ -27,7 +27,7 @@ export function useEntryPage(id: Ref<string>) {
       resetForm()
     } catch (e) {
       entry.value = null
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }

@@ -1,5 +1,5 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError } from '@/api'
+import { ApiError, asApiError } from '@/api'
 import { reportsApi, type EntryDetail, type TestReport } from '@/api/curation'
 import { calibrationSummary } from '@catalog/calibration'
 import { useReferenceStore } from '@/stores/reference'
@@ -7,7 +7,6 @@ import { useReviewStore } from '@/stores/review'
 import { useSessionStore } from '@/stores/session'
 import { reportOverlayCurves } from './curveOverlay'
 
-const asError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
 
 /** Saves a Blob under a name through a temporary link (the file routes need the bearer token, so a plain link cannot). */
 export function saveBlob(blob: Blob, name: string) {
@@ -60,7 +59,7 @@ export function useEntryReports(entry: Ref<EntryDetail | null>) {
     try {
       return { ok: true, value: await action() }
     } catch (e) {
-      return { ok: false, error: asError(e) }
+      return { ok: false, error: asApiError(e) }
     } finally {
       busyId.value = null
     }

@@ -1,5 +1,5 @@
 import { ref } from 'vue'
-import { ApiError } from '@/api'
+import { ApiError, asApiError } from '@/api'
 import { fetchFile } from '@/api/configure'
 import { useSessionStore } from '@/stores/session'
 
@@ -37,7 +37,7 @@ export function useFileDownload() {
       saveBlob(file.blob, file.fileName)
       return file.fileName
     } catch (e) {
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
       return null
     } finally {
       busy.value = null

@@ -1,8 +1,5 @@
 import { ref, shallowRef } from 'vue'
-import { ApiError, isAbort, type FieldIssue } from '@/api'
-
-/** Any failure as an ApiError, so a view has one shape of error to show. */
-export const asApiError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
+import { ApiError, isAbort, type FieldIssue, asApiError } from '@/api'
 
 /**
  * What to do on a run: null when there is nothing to ask yet (state left as it is),

@@ -1,5 +1,5 @@
 import { computed, onMounted, ref, shallowRef } from 'vue'
-import { ApiError, entriesApi } from '@/api'
+import { ApiError, entriesApi, asApiError } from '@/api'
 import { curationApi, type EntryComment, type ProposalSummary } from '@/api/curation'
 import type { EntryStatus } from '@/api/types'
 import { useSessionStore } from '@/stores/session'
@@ -42,7 +42,7 @@ export function useMyProposals() {
       }
       decisions.value = next
     } catch (e) {
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }

@@ -1,5 +1,5 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError } from '@/api'
+import { ApiError, asApiError } from '@/api'
 import { curationApi, type EntryDetail } from '@/api/curation'
 import { useReferenceStore } from '@/stores/reference'
 import { useSessionStore } from '@/stores/session'
@@ -11,7 +11,6 @@ import { useLiveEvaluation } from './useLiveEvaluation'
 /** What the proposal page edits: a new entry, an existing draft, or a change to a released entry. */
 export type ProposalMode = { kind: 'new' } | { kind: 'edit'; id: number } | { kind: 'change'; targetId: number }
 
-const asError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
 
 /** The proposal form: description, default parameters, allowed ranges, live curve, save and submit. */
 export function useProposalEditor(mode: Ref<ProposalMode>) {
@@ -78,7 +77,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
         savedBody.value = JSON.stringify(body())
       }
     } catch (e) {
-      loadError.value = asError(e)
+      loadError.value = asApiError(e)
     } finally {
       loading.value = false
     }
@@ -149,7 +148,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
       savedBody.value = JSON.stringify(sent)
       return saved
     } catch (e) {
-      saveError.value = asError(e)
+      saveError.value = asApiError(e)
       return null
     } finally {
       saving.value = false
@@ -166,7 +165,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
       entry.value = submitted
       return submitted
     } catch (e) {
-      saveError.value = asError(e)
+      saveError.value = asApiError(e)
       return null
     } finally {
       saving.value = false
@@ -184,7 +183,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
       entry.value = { ...entry.value, comments: [...entry.value.comments, created] }
       return true
     } catch (e) {
-      commentError.value = asError(e).message
+      commentError.value = asApiError(e).message
       return false
     } finally {
       posting.value = false

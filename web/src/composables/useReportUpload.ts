@@ -1,5 +1,5 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError } from '@/api'
+import { ApiError, asApiError } from '@/api'
 import { reportFormData, reportsApi, type ReportUploadFields, type TestReportWithEntry } from '@/api/curation'
 import type { AxisSpec } from '@/api/types'
 import { firstProblem, previewCsv, previewCurve, serverProblemLocation, type CsvPreview } from './csvPreview'
@@ -108,7 +108,7 @@ export function useReportUpload(context: Ref<UploadContext>) {
       }, file.value, photo.value)
       return await reportsApi.upload(context.value.entryId, body)
     } catch (e) {
-      serverError.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      serverError.value = asApiError(e)
       return null
     } finally {
       sending.value = false

@@ -1,12 +1,11 @@
 import { computed, onMounted, ref, shallowRef, watch, type Ref } from 'vue'
-import { ApiError } from '@/api'
+import { ApiError, asApiError } from '@/api'
 import { curationApi, type EntryDetail, type EntryDiff, type ReviewQueue } from '@/api/curation'
 import { useReferenceStore } from '@/stores/reference'
 import { useReviewStore } from '@/stores/review'
 import { changeCount } from './diff'
 import type { OverlayCurve } from './curveOverlay'
 
-const asError = (e: unknown) => (e instanceof ApiError ? e : new ApiError(0, 'internal', e instanceof Error ? e.message : String(e)))
 
 /** The curves of a proposal's review: the current revision (if any) under the proposed curve. */
 export function reviewCurves(diff: Pick<EntryDiff, 'curves' | 'against'> | null): OverlayCurve[] {
@@ -33,7 +32,7 @@ export function useReviewQueue() {
       queue.value = q
       reviewStore.set(q.entries.length + q.reports.length)
     } catch (e) {
-      error.value = asError(e)
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }
@@ -70,7 +69,7 @@ export function useReviewEntry(id: Ref<number>) {
       entry.value = e
       diff.value = d
     } catch (e) {
-      error.value = asError(e)
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }
@@ -89,7 +88,7 @@ export function useReviewEntry(id: Ref<number>) {
       reviewStore.refresh()
       return { ok: true, entry: updated }
     } catch (e) {
-      return { ok: false, error: asError(e) }
+      return { ok: false, error: asApiError(e) }
     } finally {
       acting.value = false
     }
@@ -108,7 +107,7 @@ export function useReviewEntry(id: Ref<number>) {
       entry.value = { ...entry.value, comments: [...entry.value.comments, created] }
       return true
     } catch (e) {
-      commentError.value = asError(e).message
+      commentError.value = asApiError(e).message
       return false
     } finally {
       posting.value = false

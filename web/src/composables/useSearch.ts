@@ -1,5 +1,5 @@
 import { ref, shallowRef } from 'vue'
-import { ApiError, isAbort, searchApi, type SearchAnswer, type SearchProgress } from '@/api'
+import { ApiError, isAbort, searchApi, type SearchAnswer, type SearchProgress, asApiError } from '@/api'
 import { emptySearchForm, toWindow, type SearchForm } from './searchWindow'
 
 /** Results asked for per search; the table pages through them. */
@@ -47,7 +47,7 @@ export function useSearch() {
       if (following === mine && status.value === 'running') throw new ApiError(0, 'network', 'The search stopped answering; try again.')
     } catch (e) {
       if (isAbort(e) || following !== mine) return
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
       status.value = 'failed'
     } finally {
       if (following === mine) { following = null; jobId = null }

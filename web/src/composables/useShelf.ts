@@ -1,5 +1,5 @@
 import { computed, onMounted, ref, shallowRef } from 'vue'
-import { ApiError, entriesApi, type EntrySummary } from '@/api'
+import { ApiError, entriesApi, type EntrySummary, asApiError } from '@/api'
 import { useReferenceStore } from '@/stores/reference'
 import { emptyFilters, filterRows, shelfRows, tagsOf, type ShelfFilters } from './shelf'
 
@@ -18,7 +18,7 @@ export function useShelf() {
       const [list] = await Promise.all([entriesApi.list(), reference.load()])
       entries.value = list
     } catch (e) {
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }

@@ -1,5 +1,5 @@
 import { onMounted, ref, shallowRef } from 'vue'
-import { ApiError, usersApi, type User } from '@/api'
+import { ApiError, usersApi, type User, asApiError } from '@/api'
 import type { GrantableRole } from '@/api/types'
 
 /** Why a user's role cannot be changed here, or null when it can. */
@@ -24,7 +24,7 @@ export function useUserAdmin() {
     try {
       users.value = await usersApi.list()
     } catch (e) {
-      error.value = e instanceof ApiError ? e : new ApiError(0, 'internal', String(e))
+      error.value = asApiError(e)
     } finally {
       loading.value = false
     }
