@@ -7,6 +7,7 @@ import { allowedMaterials, initialParamModel, paramFields, splitIssues, type Par
 import { initialRangeModel, rangeIssues, rangesBody, type RangeModel } from './rangeEditor'
 import { aboutOf, draftBody, lockReason, sortDraftIssues, type AboutModel } from './proposal'
 import { useLiveEvaluation } from './useLiveEvaluation'
+import { useEntryComments } from './useEntryComments'
 
 /** What the proposal page edits: a new entry, an existing draft, or a change to a released entry. */
 export type ProposalMode = { kind: 'new' } | { kind: 'edit'; id: number } | { kind: 'change'; targetId: number }
@@ -172,23 +173,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
     }
   }
 
-  const posting = ref(false)
-  const commentError = ref('')
-  async function comment(text: string): Promise<boolean> {
-    if (!entry.value) return false
-    posting.value = true
-    commentError.value = ''
-    try {
-      const created = await curationApi.comment(entry.value.id, text)
-      entry.value = { ...entry.value, comments: [...entry.value.comments, created] }
-      return true
-    } catch (e) {
-      commentError.value = asApiError(e).message
-      return false
-    } finally {
-      posting.value = false
-    }
-  }
+  const { posting, commentError, comment } = useEntryComments(entry)
 
   watch(mode, load, { immediate: true, deep: true })
 

@@ -5,6 +5,7 @@ import { useReferenceStore } from '@/stores/reference'
 import { useReviewStore } from '@/stores/review'
 import { changeCount } from './diff'
 import type { OverlayCurve } from './curveOverlay'
+import { useEntryComments } from './useEntryComments'
 
 
 /** The curves of a proposal's review: the current revision (if any) under the proposed curve. */
@@ -58,8 +59,6 @@ export function useReviewEntry(id: Ref<number>) {
   const loading = ref(true)
   const error = shallowRef<ApiError | null>(null)
   const acting = ref(false)
-  const posting = ref(false)
-  const commentError = ref('')
 
   async function load() {
     loading.value = true
@@ -98,21 +97,7 @@ export function useReviewEntry(id: Ref<number>) {
   const reject = (reason: string) => decide(() => curationApi.reject(id.value, reason))
   const requestChanges = (comment: string) => decide(() => curationApi.requestChanges(id.value, comment))
 
-  async function comment(text: string): Promise<boolean> {
-    if (!entry.value) return false
-    posting.value = true
-    commentError.value = ''
-    try {
-      const created = await curationApi.comment(entry.value.id, text)
-      entry.value = { ...entry.value, comments: [...entry.value.comments, created] }
-      return true
-    } catch (e) {
-      commentError.value = asApiError(e).message
-      return false
-    } finally {
-      posting.value = false
-    }
-  }
+  const { posting, commentError, comment } = useEntryComments(entry)
 
   watch(id, load, { immediate: true })
   return { entry, diff, family, curves, loading, error, acting, posting, commentError, load, release, reject, requestChanges, comment, materialName }
