@@ -246,16 +246,8 @@ export class CandidateJudge {
     const ctx = this.ctx
     if (!this.fill) return this.take(scoreRecords(ctx, params, this.keys))
     if (this.rulesFail(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
-    let fpMargin: number | null = null
-    if (ctx.footprint) {
-      const env = envelopeOf(ctx, params)
-      this.envelopeX = env.x
-      this.envelopeY = env.y
-      this.envelopeZ = env.z
-      fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
-      if (fpMargin !== null && fpMargin < 0) return this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
-    }
-    if (!this.estimate(params, this.nominal)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+    const fpMargin = this.footprintAndNominal(params)
+    if (fpMargin === undefined) return false
     return this.fromNominal(params, fpMargin)
   }
 
@@ -321,7 +313,6 @@ export class CandidateJudge {
    * Returns `ok`. Estimators without a raw-number form give no bound (objective +∞).
    */
   bound(params: Record<string, number>): boolean {
-    const ctx = this.ctx
     if (!this.fill) {
       this.ok = true
       this.objective = Infinity
@@ -329,16 +320,8 @@ export class CandidateJudge {
       this.strainMargin = null
       return true
     }
-    let fpMargin: number | null = null
-    if (ctx.footprint) {
-      const env = envelopeOf(ctx, params)
-      this.envelopeX = env.x
-      this.envelopeY = env.y
-      this.envelopeZ = env.z
-      fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
-      if (fpMargin !== null && fpMargin < 0) return this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
-    }
-    if (!this.estimate(params, this.nominal)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+    const fpMargin = this.footprintAndNominal(params)
+    if (fpMargin === undefined) return false
     const { low, high, slotOf, nominal } = this
     for (let k = 0; k < slotOf.length; k++) {
       const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN
@@ -460,6 +443,32 @@ export class CandidateJudge {
     const hi = b.sign === 1 ? highV : -lowV
     const m = b.side === 'min' ? (lo - b.bound) / b.scale : (b.bound - hi) / b.scale
     return m > MARGIN_LIMIT ? MARGIN_LIMIT : m < -MARGIN_LIMIT ? -MARGIN_LIMIT : m
+  }
+
+  /**
+   * The steps judge() and bound() share: the footprint (which also records the envelope) and
+   * the nominal estimate into `nominal`. Returns the footprint margin (null without a
+   * footprint), or undefined once the candidate has been rejected by either.
+   */
+  private footprintAndNominal(params: Record<string, number>): number | null | undefined {
+    const ctx = this.ctx
+    let fpMargin: number | null = null
+    if (ctx.footprint) {
+      const env = envelopeOf(ctx, params)
+      this.envelopeX = env.x
+      this.envelopeY = env.y
+      this.envelopeZ = env.z
+      fpMargin = footprintMargin(ctx.footprint, env.x, env.y)
+      if (fpMargin !== null && fpMargin < 0) {
+        this.reject(Stage.Footprint, footprintReason(ctx.footprint, env), fpMargin, fpMargin)
+        return undefined
+      }
+    }
+    if (!this.estimate(params, this.nominal)) {
+      this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+      return undefined
+    }
+    return fpMargin
   }
 
   private reject(stage: Stage, reason: string, objective: number, fpMargin: number | null): false {
