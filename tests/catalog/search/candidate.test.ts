@@ -135,7 +135,9 @@ describe('CandidateJudge', () => {
         if (expected.ok) expect(couldBeOk).toBe(true)
         expect(judge.objective >= expected.objective - 1e-12).toBe(true)
         if (expected.ok) expect(judge.windowMargin >= expected.windowMargin - 1e-12).toBe(true)
-      }), { numRuns: family.id === 'leaf-hinge' ? 40 : 150 })
+      // a fixed seed: the coverage check below counts cases that reach the band, and an unseeded
+      // run sometimes drew only five of them for the bistable table (a flaky count, not a fault)
+      }), { numRuns: family.id === 'leaf-hinge' ? 40 : 150, seed: 20261201 })
       expect(banded).toBeGreaterThan(5)
     })
   }
