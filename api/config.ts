@@ -21,11 +21,16 @@ export interface Config {
   /** jsonwebtoken expiresIn: sessions last a working day. */
   jwtExpiresIn: string
   bcryptCost: number
+  /** Failed sign-ins per client address (any e-mail) within the window (routes/auth.ts). */
   signinRateLimit: { windowMs: number; limit: number }
+  /** Sign-ups per client address within the window. */
+  signupRateLimit: { windowMs: number; limit: number }
   /** Worker threads for evaluations, tolerance bands and STL (api/services/compute-pool.ts); 0 runs them on the request thread. */
   computeThreads: number
-  /** Failed sign-ins in a row that lock an account, and for how long (api/services/signin-lockout.ts). */
-  signinLockout: { failures: number; lockMs: number }
+  /** Longest one evaluation, check, band, STL, data sheet or search may run on its worker, ms (FLEXSHELF_COMPUTE_BUDGET_MS). */
+  computeBudgetMs: number
+  /** Wrong passwords for one account from one address before delays start, the first delay and the longest (api/services/signin-guard.ts). */
+  signinLockout: { failures: number; baseDelayMs: number; lockMs: number }
   /** express.json limit for every API body. */
   bodyLimit: string
   version: string
@@ -138,11 +143,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     bcryptCost: parseInteger(env.FLEXSHELF_BCRYPT_COST, 'FLEXSHELF_BCRYPT_COST', DEFAULT_BCRYPT_COST, 10, 15),
     signinRateLimit: {
       windowMs: parseInteger(env.FLEXSHELF_SIGNIN_WINDOW_MS, 'FLEXSHELF_SIGNIN_WINDOW_MS', 15 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),
-      limit: parseInteger(env.FLEXSHELF_SIGNIN_LIMIT, 'FLEXSHELF_SIGNIN_LIMIT', 10, 1, 10000),
+      limit: parseInteger(env.FLEXSHELF_SIGNIN_LIMIT, 'FLEXSHELF_SIGNIN_LIMIT', 20, 1, 10000),
+    },
+    signupRateLimit: {
+      windowMs: parseInteger(env.FLEXSHELF_SIGNUP_WINDOW_MS, 'FLEXSHELF_SIGNUP_WINDOW_MS', 60 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),
+      limit: parseInteger(env.FLEXSHELF_SIGNUP_LIMIT, 'FLEXSHELF_SIGNUP_LIMIT', 10, 1, 10000),
     },
     computeThreads: parseInteger(env.FLEXSHELF_COMPUTE_THREADS, 'FLEXSHELF_COMPUTE_THREADS', DEFAULT_COMPUTE_THREADS, 0, 16),
+    computeBudgetMs: parseInteger(env.FLEXSHELF_COMPUTE_BUDGET_MS, 'FLEXSHELF_COMPUTE_BUDGET_MS', 10_000, 100, 10 * 60 * 1000),
     signinLockout: {
       failures: parseInteger(env.FLEXSHELF_LOCKOUT_FAILURES, 'FLEXSHELF_LOCKOUT_FAILURES', 5, 1, 1000),
+      baseDelayMs: parseInteger(env.FLEXSHELF_LOCKOUT_BASE_MS, 'FLEXSHELF_LOCKOUT_BASE_MS', 30 * 1000, 100, 60 * 60 * 1000),
       lockMs: parseInteger(env.FLEXSHELF_LOCKOUT_MS, 'FLEXSHELF_LOCKOUT_MS', 15 * 60 * 1000, 1000, 24 * 60 * 60 * 1000),
     },
     bodyLimit: '256kb',

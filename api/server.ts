@@ -22,7 +22,7 @@ async function main(): Promise<void> {
     if (report.familiesPending.length) console.log(`Demo entries waiting for families: ${report.familiesPending.join(', ')}`)
   }
 
-  await configureComputePool({ threads: config.computeThreads })
+  await configureComputePool({ threads: config.computeThreads, budgetMs: config.computeBudgetMs })
   const app = createApp(context)
   const server = app.listen(config.port, () => {
     const address = server.address()

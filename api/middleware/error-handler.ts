@@ -42,7 +42,10 @@ export function errorHandler(log: (err: unknown) => void = (err) => console.erro
   return function handleError(err: unknown, _req: Request, res: Response, next: NextFunction) {
     if (res.headersSent) return next(err)
     const httpError = toHttpError(err)
-    if (httpError.status >= 500) log(err)
+    if (httpError.status >= 500 && httpError.code !== 'busy') log(err)
+    // 429 (rate limits, lockout delays), 423 and 503 busy say when to come back
+    const retryAfter = httpError.details?.retryAfterSeconds
+    if (typeof retryAfter === 'number' && Number.isFinite(retryAfter)) res.set('Retry-After', String(Math.max(1, Math.ceil(retryAfter))))
     res.status(httpError.status).json({ error: { code: httpError.code, message: httpError.message, details: httpError.details } })
   }
 }

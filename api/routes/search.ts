@@ -15,7 +15,7 @@ export function searchRouter(context: AppContext): Router {
   async function search(req: Request, res: Response) {
     const leaving = new AbortController()
     res.on('close', () => { if (!res.writableFinished) leaving.abort() })
-    const { answer, cached } = await service.search(req.body, leaving.signal)
+    const { answer, cached } = await service.search(currentAuth(req).user.id, req.body, leaving.signal)
     res.set('Flexshelf-Cache', cached ? 'hit' : 'miss').json(answer)
   }
 

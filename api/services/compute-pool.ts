@@ -1,58 +1,151 @@
 /**
- * Heavy computations (evaluations, tolerance bands, STL, bcrypt) off the request thread, on a
+ * Heavy computations (evaluations, checks, tolerance bands, STL) off the request thread, on a
  * piscina pool of worker threads, so a burst of them never stalls light requests such as the
- * shelf list or a sign-in. One pool per process, shared by every app in it.
+ * shelf list or /api/health. One pool per process, shared by every app in it.
+ *
+ * Every compute task runs under the compute budget (compute/budget.ts): a task still running
+ * when its budget is spent has its thread stopped (piscina terminates it and starts a fresh
+ * one) and the caller gets ComputeBudgetExceededError, a 422 naming what was asked. The queue
+ * in front of the threads is bounded; past it a task is refused at once (503 busy).
+ *
+ * Password hashing has a pool of its own (one small thread, its own bounded queue): a flood of
+ * sign-ins waits behind other sign-ins, never in front of an evaluation, and cannot pile up.
  *
  * Threads are opt-in: the server entry calls configureComputePool({ threads }) at start-up
- * (config.computeThreads, FLEXSHELF_COMPUTE_THREADS);
- * anywhere else (tests mounting the app in-process, scripts) tasks run in the calling thread,
- * with the same answers and errors.
+ * (config.computeThreads, FLEXSHELF_COMPUTE_THREADS); anywhere else (tests mounting the app
+ * in-process, scripts) tasks run in the calling thread with the same answers and errors, but
+ * without a budget (a synchronous task in this thread cannot be stopped).
  */
+import { MessageChannel, type MessagePort } from 'node:worker_threads'
 import bcrypt from 'bcryptjs'
 import { Piscina } from 'piscina'
 import type { EvaluateOptions, Evaluation } from '../../catalog'
 import type { ToleranceBand } from '../../catalog/tolerance'
-import { fromFailure, runTask, type ComputeOutcome, type ComputeTask } from './compute/tasks'
+import type { PrinterProfile } from '../../catalog/window'
+import { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS, type ComputeAsk } from './compute/budget'
+import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask } from './compute/tasks'
+
+export { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS } from './compute/budget'
 
 const ENTRY = new URL('./compute/worker-entry.mjs', import.meta.url)
 
-let pool: Piscina<ComputeTask, ComputeOutcome> | null = null
+/** Tasks waiting per compute thread before new ones are refused (a few seconds of work at most). */
+export const COMPUTE_QUEUE_PER_THREAD = 16
+/** Password hashes waiting before new sign-ins are refused: about 8 s of bcrypt at cost 12 on one thread. */
+export const PASSWORD_QUEUE = 32
 
-/** Starts (threads ≥ 1) or stops (0) the pool; tasks already running finish. */
-export async function configureComputePool(options: { threads: number }): Promise<void> {
-  const old = pool
-  pool = options.threads > 0
-    ? new Piscina<ComputeTask, ComputeOutcome>({
-      filename: ENTRY.href,
-      minThreads: options.threads,
-      maxThreads: options.threads,
-      // threads stay warm: starting one (tsx plus the catalog) takes about a second
-      idleTimeout: Number.POSITIVE_INFINITY,
-    })
-    : null
-  if (old) await old.close()
+/** Old-generation heap of one compute thread, MB. */
+export const COMPUTE_THREAD_HEAP_MB = 512
+
+type Pool = Piscina<ComputeTask & { started?: MessagePort }, ComputeOutcome>
+
+let pool: Pool | null = null
+let passwordPool: Pool | null = null
+let budgetMs = DEFAULT_COMPUTE_BUDGET_MS
+
+function makePool(threads: number, maxQueue: number): Pool {
+  return new Piscina({
+    filename: ENTRY.href,
+    minThreads: threads,
+    maxThreads: threads,
+    maxQueue,
+    // a runaway task ends its own thread (ERR_WORKER_OUT_OF_MEMORY), never the server
+    resourceLimits: { maxOldGenerationSizeMb: COMPUTE_THREAD_HEAP_MB },
+    // threads stay warm: starting one (tsx plus the catalog) takes about a second
+    idleTimeout: Number.POSITIVE_INFINITY,
+  })
+}
+
+export interface ComputePoolOptions {
+  /** Compute threads; 0 runs every task in the calling thread (no budget). */
+  threads: number
+  /** Per-task budget, ms (config.computeBudgetMs); unchanged when left out. */
+  budgetMs?: number
+  /** Password-hashing threads; 1 when compute threads are on, 0 otherwise. */
+  passwordThreads?: number
+}
+
+/** Starts (threads ≥ 1) or stops (0) the pools; tasks already running finish. */
+export async function configureComputePool(options: ComputePoolOptions): Promise<void> {
+  const old = [pool, passwordPool]
+  if (options.budgetMs !== undefined) budgetMs = options.budgetMs
+  pool = options.threads > 0 ? makePool(options.threads, options.threads * COMPUTE_QUEUE_PER_THREAD) : null
+  const passwordThreads = options.passwordThreads ?? (options.threads > 0 ? 1 : 0)
+  passwordPool = passwordThreads > 0 ? makePool(passwordThreads, PASSWORD_QUEUE) : null
+  await Promise.all(old.map((p) => p?.close()))
 }
 
 export const computeThreads = () => (pool ? pool.maxThreads : 0)
+export const computeBudgetMs = () => budgetMs
 
-async function run(task: ComputeTask): Promise<unknown> {
-  if (!pool) {
-    // without threads bcrypt runs in its asynchronous form, which yields between rounds
-    if (task.kind === 'hashPassword') return bcrypt.hash(task.password, task.cost)
-    if (task.kind === 'comparePassword') return bcrypt.compare(task.password, task.hash)
-    return runTask(task)
-  }
-  const outcome = await pool.run(task)
-  if (!outcome.ok) throw fromFailure(outcome.error)
-  return outcome.value
+function isQueueFull(err: unknown): boolean {
+  return err instanceof Error && /queue is at limit|No task queue available/i.test(err.message)
 }
 
+/**
+ * Runs a task on the compute pool under the budget. The worker posts on `started` as soon as
+ * it picks the task up; only then does the budget's clock start.
+ */
+async function runBudgeted(task: ComputeTask, ask: ComputeAsk): Promise<unknown> {
+  if (!pool) return runTask(task)
+  const current = pool
+  const limit = budgetMs
+  const controller = new AbortController()
+  const { port1, port2 } = new MessageChannel()
+  let timer: NodeJS.Timeout | undefined
+  let exceeded = false
+  port1.once('message', () => {
+    timer = setTimeout(() => {
+      exceeded = true
+      controller.abort()
+    }, limit)
+  })
+  try {
+    const outcome = await current.run({ ...task, started: port2 }, { signal: controller.signal, transferList: [port2] })
+    if (!outcome.ok) throw fromFailure(outcome.error)
+    return outcome.value
+  } catch (err) {
+    if (exceeded) throw new ComputeBudgetExceededError(ask, limit)
+    if (isQueueFull(err)) throw new ComputeBusyError(ask.what)
+    throw err
+  } finally {
+    clearTimeout(timer)
+    port1.close()
+  }
+}
+
+async function runPassword(task: Extract<ComputeTask, { kind: 'hashPassword' | 'comparePassword' }>): Promise<unknown> {
+  if (!passwordPool) {
+    // without threads bcrypt runs in its asynchronous form, which yields between rounds
+    return task.kind === 'hashPassword' ? bcrypt.hash(task.password, task.cost) : bcrypt.compare(task.password, task.hash)
+  }
+  try {
+    const outcome = await passwordPool.run(task)
+    if (!outcome.ok) throw fromFailure(outcome.error)
+    return outcome.value
+  } catch (err) {
+    if (isQueueFull(err)) throw new ComputeBusyError('the password check')
+    throw err
+  }
+}
+
+type BandOptions = Extract<ComputeTask, { kind: 'band' }>['options']
+type EvaluateTaskOptions = { method?: string; ranges?: EvaluateOptions['ranges']; materials?: EvaluateOptions['materials'] }
+
+const methodWords = (method?: string) => (method ? ` (method ${method})` : '')
+
 export const compute = {
-  evaluate: (familyId: string, params: unknown, options: { method?: string; ranges?: EvaluateOptions['ranges']; materials?: EvaluateOptions['materials'] } = {}) =>
-    run({ kind: 'evaluate', familyId, params, options }) as Promise<Evaluation>,
-  toleranceBand: (familyId: string, params: unknown, options: Extract<ComputeTask, { kind: 'band' }>['options'] = {}) =>
-    run({ kind: 'band', familyId, params, options }) as Promise<ToleranceBand>,
-  stl: (familyId: string, params: unknown) => run({ kind: 'stl', familyId, params }) as Promise<Uint8Array>,
-  hashPassword: (password: string, cost: number) => run({ kind: 'hashPassword', password, cost }) as Promise<string>,
-  comparePassword: (password: string, hash: string) => run({ kind: 'comparePassword', password, hash }) as Promise<boolean>,
+  evaluate: (familyId: string, params: unknown, options: EvaluateTaskOptions = {}, what = `the evaluation of ${familyId}${methodWords(options.method)}`) =>
+    runBudgeted({ kind: 'evaluate', familyId, params, options }, { task: 'evaluate', what, familyId }) as Promise<Evaluation>,
+  toleranceBand: (familyId: string, params: unknown, options: BandOptions = {}, what = `the tolerance band of ${familyId}${methodWords(options?.method)}`) =>
+    runBudgeted({ kind: 'band', familyId, params, options }, { task: 'band', what, familyId }) as Promise<ToleranceBand>,
+  /** The band and the printability of a check (or a data sheet, `task` says which). */
+  check: (familyId: string, params: unknown, options: BandOptions, printer: Partial<PrinterProfile>, ask: Partial<ComputeAsk> = {}) =>
+    runBudgeted({ kind: 'check', familyId, params, options, printer }, {
+      task: ask.task ?? 'check', what: ask.what ?? `the check of ${familyId}${methodWords(options?.method)}`, familyId,
+    }) as Promise<CheckComputation>,
+  stl: (familyId: string, params: unknown, what = `the STL of ${familyId}`) =>
+    runBudgeted({ kind: 'stl', familyId, params }, { task: 'stl', what, familyId }) as Promise<Uint8Array>,
+  hashPassword: (password: string, cost: number) => runPassword({ kind: 'hashPassword', password, cost }) as Promise<string>,
+  comparePassword: (password: string, hash: string) => runPassword({ kind: 'comparePassword', password, hash }) as Promise<boolean>,
 }

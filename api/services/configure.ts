@@ -5,7 +5,7 @@
  */
 import { Op } from 'sequelize'
 import type { Evaluation, FamilyDefinition } from '../../catalog'
-import { checkPrintability, type PrintabilityReport } from '../../catalog/printability'
+import type { PrintabilityReport } from '../../catalog/printability'
 import { DEFAULT_TOLERANCE_NOTE, type ToleranceBand } from '../../catalog/tolerance'
 import { judgeWithBand, type Judgement } from '../../catalog/window'
 import type { AppContext } from '../context'
@@ -75,13 +75,18 @@ export function numericParams(family: FamilyDefinition, evaluation: Pick<Evaluat
 }
 
 /** The nominal evaluation and its tolerance corners, on the compute pool (five solves for the nonlinear methods). */
-export function evaluateTarget(target: ConfigureTarget, input: ConfigurationInput): Promise<ToleranceBand> {
-  return compute.toleranceBand(target.family.id, input.params, {
-    method: input.method ?? undefined,
-    ranges: target.ranges,
-    materials: target.materials,
-    tolerance: input.tolerance ?? undefined,
-  })
+export function evaluateTarget(target: ConfigureTarget, input: ConfigurationInput, purpose = 'the predicted curve'): Promise<ToleranceBand> {
+  return compute.toleranceBand(target.family.id, input.params, bandOptions(target, input), askedOf(target, input, purpose))
+}
+
+function bandOptions(target: ConfigureTarget, input: ConfigurationInput) {
+  return { method: input.method ?? undefined, ranges: target.ranges, materials: target.materials, tolerance: input.tolerance ?? undefined }
+}
+
+/** "the check of entry 12 "Panel latch" (bistable-beam, method nonlinear-fe)": what a 422 compute_budget_exceeded names. */
+export function askedOf(target: ConfigureTarget, input: ConfigurationInput, purpose: string): string {
+  const method = input.method ? `, method ${input.method}` : ''
+  return `${purpose} of entry ${target.entry.id} "${target.entry.name}" (${target.family.id}${method})`
 }
 
 export interface BandView {
@@ -109,14 +114,16 @@ export interface CheckResult {
 
 export const PRINTABILITY_BASIS = 'common practice (FDM rules of thumb, not a published standard)'
 
-export async function checkTarget(target: ConfigureTarget, input: ConfigurationInput): Promise<CheckResult> {
+/** The check (or, with task 'datasheet', the data sheet's check): band and printability on the compute pool, under its budget. */
+export async function checkTarget(target: ConfigureTarget, input: ConfigurationInput, task: 'check' | 'datasheet' = 'check'): Promise<CheckResult> {
   const { entry, family } = target
-  const band = await evaluateTarget(target, input)
+  const { band, printability } = await compute.check(family.id, input.params, bandOptions(target, input), input.printer ?? {}, {
+    task, what: askedOf(target, input, task === 'check' ? 'the check' : 'the data sheet'),
+  })
   const evaluation = band.nominal
   const numeric = numericParams(family, evaluation)
   const envelope = family.envelope(numeric)
   const verdict = input.window ? judgeWithBand(input.window, evaluation.metrics, band.metrics, { envelope }) : null
-  const printability = checkPrintability(family, numeric, input.printer ?? {}, { ranges: target.ranges })
   const revision = entry.currentRevision ? { id: entry.currentRevision.id, number: entry.currentRevision.number } : null
   return {
     entry: { id: entry.id, name: entry.name, status: entry.status, familyId: family.id, familyName: family.name, revision },

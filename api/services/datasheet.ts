@@ -135,7 +135,7 @@ export interface DatasheetOptions {
 
 export async function buildDatasheet(target: ConfigureTarget, input: ConfigurationInput, options: DatasheetOptions = {}): Promise<Datasheet> {
   const { entry, family } = target
-  const check = await checkTarget(target, input)
+  const check = await checkTarget(target, input, 'datasheet')
   const { evaluation, band } = check
   const now = options.now ?? new Date()
   const method = family.methods.find((m) => m.id === evaluation.method)!

@@ -7,7 +7,7 @@ import { validateParams } from '../../catalog'
 import { compute } from './compute-pool'
 import type { ConfigurationInput } from './configuration-input'
 import type { ToleranceBand } from '../../catalog/tolerance'
-import { evaluateTarget, type ConfigureTarget } from './configure'
+import { askedOf, evaluateTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
 
 export interface DownloadFile {
@@ -23,7 +23,7 @@ export async function stlFile(target: ConfigureTarget, input: ConfigurationInput
   const { family } = target
   // the ranges and materials were checked when the input was resolved; this fills in defaults
   const { params } = validateParams(family, input.params, { ranges: target.ranges, materials: target.materials })
-  const bytes = await compute.stl(family.id, params)
+  const bytes = await compute.stl(family.id, params, askedOf(target, input, 'the STL'))
   return {
     fileName: downloadFileName(target.entry.name, family, params, 'stl'),
     contentType: 'model/stl',
@@ -45,7 +45,7 @@ function column(label: string, unit: string): string {
  * run as a formula (= + - @ tab CR) get a leading apostrophe (papaparse escapeFormulae).
  */
 export async function curveCsvFile(target: ConfigureTarget, input: ConfigurationInput): Promise<DownloadFile> {
-  return curveCsvOf(target, input, await evaluateTarget(target, input))
+  return curveCsvOf(target, input, await evaluateTarget(target, input, 'the curve CSV'))
 }
 
 /** The CSV file of an evaluated band (the writer alone, so it can be checked on any curve). */

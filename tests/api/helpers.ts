@@ -40,6 +40,8 @@ export function makeTempDir(prefix = 'flexshelf-api-'): string {
 export function testConfig(dataDir: string, overrides: Partial<Config> = {}): Config {
   return loadConfig({ FLEXSHELF_DATA: dataDir }, {
     bcryptCost: TEST_BCRYPT_COST,
+    // many sign-ups and sign-ins from one loopback address per test file; the limits are tested apart
+    signupRateLimit: { windowMs: 60 * 60 * 1000, limit: 10_000 },
     // tests mount the app without the web build unless they ask for one
     webDir: join(dataDir, 'no-web-build'),
     ...overrides,

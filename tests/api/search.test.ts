@@ -6,6 +6,7 @@
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { searchShelfSync, type SearchAnswer, type ShelfEntry } from '../../catalog'
+import { configureComputePool } from '../../api/services/compute-pool'
 import { searchService } from '../../api/services/search'
 import { bearer, signInAs, startTestApp, type TestApp } from './helpers'
 import { readEvents } from './sse'
@@ -220,5 +221,31 @@ describe('DELETE /api/searches/:id', () => {
     const fourth = await request(big.app).post('/api/searches').set(bearer(token)).send(window(3)).expect(429)
     expect(fourth.body.error.message).toMatch(/3 searches running/)
     for (const id of ids) await request(big.app).delete(`/api/searches/${id}`).set(bearer(token)).expect(204)
+  })
+
+  it('counts POST /api/search under the same per-user limit (issue 11, finding 5)', async () => {
+    const window = (i: number) => ({ kind: 'bistable', peakForce: { min: 3, max: 9 + i } })
+    const ids: string[] = []
+    for (let i = 0; i < 3; i++) ids.push((await request(big.app).post('/api/searches').set(bearer(token)).send(window(i)).expect(202)).body.id)
+    // the old limit covered /api/searches only: this one-shot search ran as a fourth
+    const oneShot = await request(big.app).post('/api/search').set(bearer(token)).send(window(3)).expect(429)
+    expect(oneShot.body.error.message).toMatch(/3 searches running/)
+    expect(oneShot.headers['retry-after']).toBe('1')
+    // another user is not held back by this one's searches
+    const other = await signInAs(big.app, 'librarian')
+    await request(big.app).post('/api/search').set(bearer(other)).send({ kind: 'spring', stiffness: { min: 0.2 }, limit: 1 }).expect(200)
+    for (const id of ids) await request(big.app).delete(`/api/searches/${id}`).set(bearer(token)).expect(204)
+  })
+
+  it('stops a search past the compute budget: 422 compute_budget_exceeded naming the search, and the next one runs', async () => {
+    await configureComputePool({ threads: 0, budgetMs: 1 })
+    try {
+      const res = await request(big.app).post('/api/search').set(bearer(token)).send({ kind: 'bistable', peakForce: { min: 2.5, max: 8 } }).expect(422)
+      expect(res.body.error).toMatchObject({ code: 'compute_budget_exceeded', details: { task: 'search', budgetMs: 1 } })
+      expect(res.body.error.message).toMatch(/^the search for a bistable window took longer than the compute budget of 1 ms/)
+    } finally {
+      await configureComputePool({ threads: 0, budgetMs: 10_000 })
+    }
+    await request(big.app).post('/api/search').set(bearer(token)).send({ kind: 'bistable', peakForce: { min: 2.5, max: 8 } }).expect(200)
   })
 })

@@ -5,19 +5,28 @@
  * function runs in a pool thread (worker.ts) or, without threads, in the calling one.
  */
 import bcrypt from 'bcryptjs'
-import { buildGeometry, evaluate, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation } from '../../../catalog'
+import { buildGeometry, evaluate, getFamily, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation } from '../../../catalog'
+import { checkPrintability, type PrintabilityReport } from '../../../catalog/printability'
 import { toleranceBand, type ToleranceBand } from '../../../catalog/tolerance'
+import type { PrinterProfile } from '../../../catalog/window'
 
 type Materials = EvaluateOptions['materials']
 
 export type ComputeTask =
   | { kind: 'evaluate'; familyId: string; params: unknown; options: { method?: string; ranges?: EvaluateOptions['ranges']; materials?: Materials } }
   | { kind: 'band'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2] }
+  | { kind: 'check'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2]; printer: Partial<PrinterProfile> }
   | { kind: 'stl'; familyId: string; params: unknown }
   | { kind: 'hashPassword'; password: string; cost: number }
   | { kind: 'comparePassword'; password: string; hash: string }
 
-export type ComputeValue = Evaluation | ToleranceBand | Uint8Array | string | boolean
+/** A check's heavy part: the band (nominal plus corners) and the printability of the nominal part. */
+export interface CheckComputation {
+  band: ToleranceBand
+  printability: PrintabilityReport
+}
+
+export type ComputeValue = Evaluation | ToleranceBand | CheckComputation | Uint8Array | string | boolean
 
 /** A failure as data: the core's own errors keep their class, fields and details. */
 export type ComputeFailure =
@@ -34,6 +43,13 @@ export function runTask(task: ComputeTask): ComputeValue {
       return evaluate(task.familyId, task.params, task.options)
     case 'band':
       return toleranceBand(task.familyId, task.params, task.options)
+    case 'check': {
+      const band = toleranceBand(task.familyId, task.params, task.options)
+      const family = getFamily(task.familyId)
+      const numeric: Record<string, number> = {}
+      for (const spec of family.params) numeric[spec.key] = band.nominal.params[spec.key] as number
+      return { band, printability: checkPrintability(family, numeric, task.printer, { ranges: task.options?.ranges }) }
+    }
     case 'stl':
       return serializeStl(buildGeometry(task.familyId, task.params))
     // bcrypt is slow on purpose (a quarter second at cost 12): on a pool thread it may block

@@ -7,12 +7,26 @@ import { availableParallelism } from 'node:os'
 import { Worker } from 'node:worker_threads'
 import type { SearchAnswer, SearchProgress } from '../../../catalog'
 import { SearchCancelledError, ValidationError } from '../../../catalog'
+import { ComputeBudgetExceededError, ComputeBusyError, type ComputeAsk } from '../compute/budget'
+import { computeBudgetMs } from '../compute-pool'
 import type { FromWorker, SearchTask } from './protocol'
 
 export interface RunOptions {
   onProgress?: (progress: SearchProgress) => void
   signal?: AbortSignal
+  /** The compute budget, ms; the process's (FLEXSHELF_COMPUTE_BUDGET_MS) when left out. */
+  budgetMs?: number
+  /** What the 422 names when the budget runs out. */
+  ask?: ComputeAsk
 }
+
+/**
+ * A search past its budget is first asked to stop (the search is time-sliced and reads the
+ * cancel between slices); a thread still busy this long after is terminated and replaced.
+ */
+export const BUDGET_GRACE_MS = 250
+/** Old-generation heap of one search thread, MB: a runaway search ends its thread, not the server. */
+export const SEARCH_THREAD_HEAP_MB = 512
 
 interface Pending {
   resolve: (answer: SearchAnswer) => void
@@ -41,17 +55,39 @@ export class SearchPool {
     if (options.signal?.aborted) return Promise.reject(new SearchCancelledError())
     const thread = this.pick()
     const id = this.nextId++
+    const budgetMs = options.budgetMs ?? computeBudgetMs()
+    const ask = options.ask ?? { task: 'search', what: `the search for a ${task.window.kind} window` }
     return new Promise<SearchAnswer>((resolve, reject) => {
+      let exceeded = false
+      let grace: NodeJS.Timeout | undefined
       const abort = () => thread.worker.postMessage({ type: 'cancel', id })
       options.signal?.addEventListener('abort', abort, { once: true })
-      const settle = () => options.signal?.removeEventListener('abort', abort)
+      const budget = setTimeout(() => {
+        exceeded = true
+        abort()
+        grace = setTimeout(() => this.stop(thread), BUDGET_GRACE_MS)
+      }, budgetMs)
+      const settle = () => {
+        clearTimeout(budget)
+        clearTimeout(grace)
+        options.signal?.removeEventListener('abort', abort)
+      }
       thread.pending.set(id, {
         resolve: (a) => { settle(); resolve(a) },
-        reject: (e) => { settle(); reject(e) },
+        reject: (e) => { settle(); reject(exceeded ? new ComputeBudgetExceededError(ask, budgetMs) : e) },
         onProgress: options.onProgress,
       })
       thread.worker.postMessage({ type: 'run', id, task })
     })
+  }
+
+  /** Ends a thread that did not stop when asked; its other searches are refused as busy (503), not failed. */
+  private stop(thread: Thread) {
+    if (!this.threads.includes(thread)) return
+    this.threads = this.threads.filter((t) => t !== thread)
+    for (const p of thread.pending.values()) p.reject(new ComputeBusyError('the search'))
+    thread.pending.clear()
+    void thread.worker.terminate()
   }
 
   /** Threads started so far (tests and the bench read it). */
@@ -75,7 +111,7 @@ export class SearchPool {
   }
 
   private spawn(): Thread {
-    const worker = new Worker(ENTRY)
+    const worker = new Worker(ENTRY, { resourceLimits: { maxOldGenerationSizeMb: SEARCH_THREAD_HEAP_MB } })
     worker.unref()
     const thread: Thread = { worker, pending: new Map() }
     worker.on('message', (m: FromWorker) => this.receive(thread, m))

@@ -15,7 +15,7 @@ import { loadShelf, type ShelfSnapshot } from './shelf'
 
 /** Answers kept; a window's answer is a few kilobytes. */
 export const CACHE_CAPACITY = 200
-/** Running searches one user may have at once. */
+/** Running searches one user may have at once, over both routes (POST /api/search and jobs). */
 export const MAX_RUNNING_PER_USER = 3
 /** A finished job is kept this long for a late or repeated events request, ms. */
 export const FINISHED_JOB_TTL_MS = 10 * 60_000
@@ -49,6 +49,8 @@ export class SearchService {
   private readonly cache = new LruCache<SearchAnswer>(CACHE_CAPACITY)
   private cacheVersion = ''
   private readonly jobs = new Map<string, SearchJob>()
+  /** POST /api/search answers being computed, per user (jobs are counted from `jobs`). */
+  private readonly answering = new Map<number, number>()
   /** Cache hits and misses since start (tests and the bench read them). */
   readonly stats = { hits: 0, misses: 0 }
 
@@ -72,23 +74,43 @@ export class SearchService {
     return answer
   }
 
+  /** Searches of one user being computed now, over both routes. */
+  running(ownerId: number): number {
+    let jobs = 0
+    for (const j of this.jobs.values()) if (j.ownerId === ownerId && j.status === 'running') jobs++
+    return jobs + (this.answering.get(ownerId) ?? 0)
+  }
+
+  /** 429 when the user already has MAX_RUNNING_PER_USER searches running, whichever route started them. */
+  private assertRoom(ownerId: number) {
+    const running = this.running(ownerId)
+    if (running >= MAX_RUNNING_PER_USER) {
+      throw new HttpError(429, 'rate_limited', `you already have ${running} searches running; cancel one or wait for it to finish`, { retryAfterSeconds: 1 })
+    }
+  }
+
   /** One search to the end (POST /api/search); `signal` cancels it when the caller leaves. */
-  async search(body: unknown, signal?: AbortSignal): Promise<SearchOutcome> {
+  async search(ownerId: number, body: unknown, signal?: AbortSignal): Promise<SearchOutcome> {
     const { window, shelf, key } = await this.prepare(body)
     const hit = this.cache.get(key)
     if (hit) { this.stats.hits++; return { answer: hit, cached: true } }
+    this.assertRoom(ownerId)
     this.stats.misses++
-    return { answer: await this.compute(window, shelf, key, undefined, signal), cached: false }
+    this.answering.set(ownerId, (this.answering.get(ownerId) ?? 0) + 1)
+    try {
+      return { answer: await this.compute(window, shelf, key, undefined, signal), cached: false }
+    } finally {
+      const left = (this.answering.get(ownerId) ?? 1) - 1
+      if (left > 0) this.answering.set(ownerId, left)
+      else this.answering.delete(ownerId)
+    }
   }
 
   /** Starts a search job (POST /api/searches). */
   async start(ownerId: number, body: unknown): Promise<SearchJob> {
     this.sweep()
     const { window, shelf, key } = await this.prepare(body)
-    const running = [...this.jobs.values()].filter((j) => j.ownerId === ownerId && j.status === 'running').length
-    if (running >= MAX_RUNNING_PER_USER) {
-      throw new HttpError(429, 'rate_limited', `you already have ${running} searches running; cancel one or wait for it to finish`, { retryAfterSeconds: 1 })
-    }
+    this.assertRoom(ownerId)
     const job: SearchJob = { id: randomUUID(), ownerId, status: 'running', cached: false, progress: null, final: null, finishedAt: null, controller: new AbortController(), listeners: new Set() }
     this.jobs.set(job.id, job)
     const hit = this.cache.get(key)
