@@ -1,3 +1,5 @@
 export * from './types'
+export { defineFamily, nonlinearFeMethod, peakStrainMetric, strainLimitMetric, strainSafetyMetric, ROTATION_AXES } from './define'
+export type { FamilyParts } from './define'
 export { validateParams, paramsSchema, DEFAULT_MATERIAL_ID } from './validate'
 export type { ParamRanges, ValidateOptions, ValidatedParams } from './validate'

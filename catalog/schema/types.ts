@@ -113,6 +113,79 @@ export interface FamilyDefinition {
   envelope: (params: Record<string, number>) => { x: number; y: number; z: number }
   /** Cautions shown with every result of the family (fatigue, creep). */
   cautions: string[]
+  /** How search and the design map estimate the family fast; without it, its fast method through evaluate. */
+  search?: FamilySearch
+  /** How the design map presents the family. */
+  designMap?: FamilyDesignMap
+  /** The family's own tolerance rules. */
+  tolerance?: FamilyTolerance
+}
+
+/** The family's fast estimator (closed forms, or a precomputed table) for search and the design map. */
+export interface FamilySearch {
+  estimator: FastEstimator
+}
+
+export interface FamilyDesignMap {
+  /**
+   * The two parameters engineers sweep first, across (x) and up (y); the map falls back to the
+   * first continuous parameter across and the wall thickness up when either is fixed by the entry.
+   */
+  sweep: readonly [x: string, y: string]
+}
+
+export interface FamilyTolerance {
+  /**
+   * How far the fast estimate may lie from the exact method, per metric, in the metric's own
+   * units, for one configuration (its exact metrics and its parameters). A family whose fast
+   * estimate is its own closed form leaves this out: the two methods then differ only by the
+   * models' own difference, which a confirmation reports as it is.
+   */
+  estimateAllowance?: (exact: Readonly<Record<string, MetricValue>>, params: Readonly<Record<string, number | string>>) => Record<string, number>
+}
+
+// The shape of a family's fast estimator, the cheap method that search and the design map run
+// on hundreds of thousands of candidates (a family folder may carry one: FamilySearch).
+
+export type Estimate = Record<string, MetricValue>
+export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
+/**
+ * Writes the metrics into `out` in the layout's slot order — NaN for an empty (null) metric,
+ * 1/0 for a boolean — and returns false where the estimate does not apply (outside a table).
+ * Search judges millions of candidates on these raw numbers without building records.
+ */
+export type FillFn = (params: Record<string, number>, modulus: number, strainLimit: number, out: Float64Array) => boolean
+
+/**
+ * Metric keys in slot order, and how each depends on the modulus E at fixed geometry: 1 where it
+ * is proportional to E (forces, stiffnesses, energies: every closed form here is linear
+ * elasticity, and the bistable table is stored divided by E), 0 where it does not depend on E
+ * at all (travel, rotation, positions, and the strains: each family's strain is evaluated at a
+ * given displacement or rotation, or at a force that is itself proportional to E, so E cancels).
+ * That lets search take the modulus tolerance corners from one estimate per wall thickness.
+ * `emptyFixed` says whether a metric's being empty (null) is the same at every wall
+ * thickness — a snap hook's separation force is empty when its face locks, which only the
+ * angles and friction decide — so that a nominal estimate bounds the band (search's screen).
+ * A test holds each estimator to all three.
+ */
+export interface EstimateLayout {
+  keys: readonly string[]
+  modulusPower: readonly (0 | 1)[]
+  booleans: readonly boolean[]
+  emptyFixed: readonly boolean[]
+}
+
+export interface FastEstimator {
+  /** How the estimate is made (reported with every result). */
+  method: string
+  /** The family method it reproduces: exactly for closed forms, within the table's error for tables. */
+  reproduces: string
+  /** True when it equals `reproduces` to rounding; false for interpolated tables. */
+  exact: boolean
+  estimate: EstimateFn
+  /** Raw-number form of `estimate` (dedicated estimators; the fallback has none). */
+  fill?: FillFn
+  layout?: EstimateLayout
 }
 
 export type { Material }

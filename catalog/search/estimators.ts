@@ -13,46 +13,9 @@ import { deflectionForce, rootStrainAt, wedgeForce } from '../families/snap-hook
 import { evaluate as leafHingeModel } from '../families/leaf-hinge/model'
 import { estimateBistable } from '../families/bistable-beam/estimate'
 
-export type Estimate = Record<string, MetricValue>
-export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
-/**
- * Writes the metrics into `out` in the layout's slot order — NaN for an empty (null) metric,
- * 1/0 for a boolean — and returns false where the estimate does not apply (outside a table).
- * Search judges millions of candidates on these raw numbers without building records.
- */
-export type FillFn = (params: Record<string, number>, modulus: number, strainLimit: number, out: Float64Array) => boolean
-
-/**
- * Metric keys in slot order, and how each depends on the modulus E at fixed geometry: 1 where it
- * is proportional to E (forces, stiffnesses, energies: every closed form here is linear
- * elasticity, and the bistable table is stored divided by E), 0 where it does not depend on E
- * at all (travel, rotation, positions, and the strains: each family's strain is evaluated at a
- * given displacement or rotation, or at a force that is itself proportional to E, so E cancels).
- * That lets search take the modulus tolerance corners from one estimate per wall thickness.
- * `emptyFixed` says whether a metric's being empty (null) is the same at every wall
- * thickness — a snap hook's separation force is empty when its face locks, which only the
- * angles and friction decide — so that a nominal estimate bounds the band (search's screen).
- * A test holds each estimator to all three.
- */
-export interface EstimateLayout {
-  keys: readonly string[]
-  modulusPower: readonly (0 | 1)[]
-  booleans: readonly boolean[]
-  emptyFixed: readonly boolean[]
-}
-
-export interface FastEstimator {
-  /** How the estimate is made (reported with every result). */
-  method: string
-  /** The family method it reproduces: exactly for closed forms, within the table's error for tables. */
-  reproduces: string
-  /** True when it equals `reproduces` to rounding; false for interpolated tables. */
-  exact: boolean
-  estimate: EstimateFn
-  /** Raw-number form of `estimate` (dedicated estimators; the fallback has none). */
-  fill?: FillFn
-  layout?: EstimateLayout
-}
+// The estimator's shape is part of the family contract (a family folder may carry one).
+import type { Estimate, EstimateFn, EstimateLayout, FastEstimator, FillFn } from '../schema/types'
+export type { Estimate, EstimateFn, EstimateLayout, FastEstimator, FillFn } from '../schema/types'
 
 const DEG = 180 / Math.PI
 

@@ -1,5 +1,6 @@
 import { ValidationError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, MetricValue, ModelInput, ModelOutput } from '../../schema/types'
+import { nonlinearFeMethod, peakStrainMetric, strainLimitMetric, strainSafetyMetric } from '../../schema/define'
 import { closedFormForce, closedFormMetrics, closedFormStrain, CRITICAL_Q } from './closed-form'
 import { reportedMetrics, snapMetrics, type SnapMetrics } from './curve-metrics'
 import { estimateRigidPeak } from './estimate'
@@ -7,10 +8,7 @@ import { FE_POINTS, solveBistableCurve } from './fe-model'
 import { MIN_SLENDERNESS } from './params'
 
 export const methods: MethodInfo[] = [
-  {
-    id: 'nonlinear-fe', label: 'Nonlinear beam finite elements',
-    source: 'Corotational Euler–Bernoulli beam elements (Crisfield 1991; shallow-arch local strain, Battini & Pacoste 2002), displacement-controlled Newton–Raphson path following with the second symmetric shape seeded at the bifurcation (Qiu, Lang & Slocum 2004); mesh error removed by Richardson extrapolation from two meshes (Richardson 1911).',
-  },
+  nonlinearFeMethod('Corotational Euler–Bernoulli beam elements (Crisfield 1991; shallow-arch local strain, Battini & Pacoste 2002), displacement-controlled Newton–Raphson path following with the second symmetric shape seeded at the bifurcation (Qiu, Lang & Slocum 2004); mesh error removed by Richardson extrapolation from two meshes (Richardson 1911).'),
   {
     id: 'closed-form', label: 'Two-mode closed form',
     source: 'Qiu, Lang & Slocum, "A curved-beam bistable mechanism", J. Microelectromechanical Systems 13(2):137–146, 2004 (rigidly clamped ends only).',
@@ -30,9 +28,9 @@ export const metrics: MetricSpec[] = [
   { key: 'energyIn', label: 'Work to snap', unit: 'mJ', help: 'Work done pushing the shuttle to the unstable position.' },
   { key: 'energyBarrier', label: 'Energy barrier', unit: 'mJ', help: 'Work to push the shuttle back from the second position over the unstable one.' },
   { key: 'bistable', label: 'Bistable', unit: 'boolean', help: 'True when the shuttle stays in a second position by itself.' },
-  { key: 'maxStrain', label: 'Largest strain', unit: '', help: 'Largest bending-plus-axial strain along the travel (0.02 = 2 %).' },
-  { key: 'strainLimit', label: 'Strain limit', unit: '', help: 'Permissible strain of the material.' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit divided by the largest strain.' },
+  peakStrainMetric('Largest bending-plus-axial strain along the travel (0.02 = 2 %).', 'Largest strain'),
+  strainLimitMetric(),
+  strainSafetyMetric('travel', 'Strain limit divided by the largest strain.'),
 ]
 
 /** Module force scale 2·E·I·h/l³ (two beams), N: the closed form's f is per beam. */

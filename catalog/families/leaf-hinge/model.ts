@@ -6,7 +6,8 @@
  * theory: the bending moment along the blade averages to its mid-point value).
  */
 import { SolverError } from '../../errors'
-import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import type { MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { nonlinearFeMethod, peakStrainMetric, ROTATION_AXES, strainSafetyMetric } from '../../schema/define'
 import { firstCrossing, followPath, meshStraight, rectangleSection, sampleAt, type Frame, type PathResult } from '../../solvers'
 
 const DEG = 180 / Math.PI
@@ -44,25 +45,18 @@ export const methods: MethodInfo[] = [
     label: 'Pseudo-rigid-body model',
     source: 'Pseudo-rigid-body model: small-length flexural pivot K = EI/L (Howell & Midha, J. Mechanical Design 116:280–290, 1994); for a link shorter than the blade the end-force cantilever model, γ = 0.8517, K_Θ = 2.676 (Howell & Midha, J. Mechanical Design 117:156–165, 1995; Howell, Compliant Mechanisms, Wiley 2001, ch. 5)',
   },
-  {
-    id: 'nonlinear-fe',
-    label: 'Nonlinear beam finite elements',
-    source: 'Geometrically exact planar beam elements (corotational formulation) followed along the equilibrium path under displacement control; the blade meshed with beam elements, the link rigid',
-  },
+  nonlinearFeMethod('Geometrically exact planar beam elements (corotational formulation) followed along the equilibrium path under displacement control; the blade meshed with beam elements, the link rigid'),
 ]
 
 export const metrics: MetricSpec[] = [
   { key: 'rotationalStiffness', label: 'Rotational stiffness', unit: 'N·mm/rad', help: 'Moment about the blade mid-point per radian of link rotation, for small rotation.' },
   { key: 'maxRotation', label: 'Largest rotation', unit: 'deg', help: 'Link rotation at which the blade root reaches the strain limit (or the end of the working range).' },
   { key: 'pivotDrift', label: 'Pivot drift', unit: 'mm', help: 'How far the hinge\u2019s effective pivot has moved from the blade mid-point at the largest rotation.' },
-  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Bending strain at the blade root at the largest rotation (a fraction).' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest rotation.' },
+  peakStrainMetric('Bending strain at the blade root at the largest rotation (a fraction).'),
+  strainSafetyMetric('rotation'),
 ]
 
-export const axes: { displacement: AxisSpec; force: AxisSpec } = {
-  displacement: { label: 'Rotation', unit: 'deg' },
-  force: { label: 'Moment', unit: 'N·mm' },
-}
+export const axes = ROTATION_AXES
 
 export interface HingeGeometry {
   length: number

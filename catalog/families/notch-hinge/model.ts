@@ -3,7 +3,8 @@
  * hinges", Machine Design 37:151–156, 1965 (the same integral in Lobontiu, Compliant
  * Mechanisms: Design of Flexure Hinges, CRC 2003), full and thin-neck forms.
  */
-import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import type { MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { nonlinearFeMethod, peakStrainMetric, ROTATION_AXES, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, sampleAt, strainLimitedStop, type Frame, type FrameElement } from '../../solvers'
 
 const DEG = 180 / Math.PI
@@ -32,24 +33,17 @@ export const methods: MethodInfo[] = [
     label: 'Paros–Weisbord (thin neck)',
     source: 'Paros & Weisbord, Machine Design 37:151–156, 1965, simplified form for a neck much thinner than the notch radius',
   },
-  {
-    id: 'nonlinear-fe',
-    label: 'Nonlinear beam finite elements',
-    source: 'Geometrically exact planar beam elements (corotational formulation) on a stepped, variable-section beam following the notch profile, loaded by a pure moment under rotation control',
-  },
+  nonlinearFeMethod('Geometrically exact planar beam elements (corotational formulation) on a stepped, variable-section beam following the notch profile, loaded by a pure moment under rotation control'),
 ]
 
 export const metrics: MetricSpec[] = [
   { key: 'rotationalStiffness', label: 'Rotational stiffness', unit: 'N·mm/rad', help: 'Moment per radian of rotation of one side of the notch against the other.' },
   { key: 'maxRotation', label: 'Largest rotation', unit: 'deg', help: 'Rotation at which the neck reaches the strain limit (or the end of the working range).' },
-  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Bending strain at the neck at the largest rotation (a fraction).' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest rotation.' },
+  peakStrainMetric('Bending strain at the neck at the largest rotation (a fraction).'),
+  strainSafetyMetric('rotation'),
 ]
 
-export const axes: { displacement: AxisSpec; force: AxisSpec } = {
-  displacement: { label: 'Rotation', unit: 'deg' },
-  force: { label: 'Moment', unit: 'N·mm' },
-}
+export const axes = ROTATION_AXES
 
 /**
  * Full Paros–Weisbord compliance θ/M (rad per N·mm), β = t/(2R):

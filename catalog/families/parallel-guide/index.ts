@@ -1,25 +1,18 @@
-import type { FamilyDefinition } from '../../schema/types'
-import { build, envelope } from './geometry'
-import { axes, evaluate, methods, metrics } from './model'
-import { params, rules } from './params'
+import { defineFamily } from '../../schema/define'
+import * as geometry from './geometry'
+import * as model from './model'
+import * as params from './params'
 
-export const parallelGuide: FamilyDefinition = {
+export const parallelGuide = defineFamily({
   id: 'parallel-guide',
   name: 'Parallel-blade guide',
   kind: 'guide',
   summary: 'Two parallel blades carrying a stage: a straight-line guide without sliding parts, with a small known parasitic motion.',
-  params,
-  rules,
-  methods,
   defaultMethod: 'nonlinear-fe',
-  metrics,
-  axes,
-  evaluate,
-  build,
-  envelope,
+  designMap: { sweep: ['length', 'thickness'] },
   cautions: [
     'The blade strain is checked against the material\u2019s strain limit shown with the result; a guide cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',
     'Polymers creep: a stage held off its rest position drifts and the guide takes a set, faster when warm.',
     'These are beam-theory estimates; printed blades vary in thickness and stiffness grows with its cube. Confirm on printed parts, and defer to qualified review where a failure could hurt someone.',
   ],
-}
+}, { params, model, geometry })

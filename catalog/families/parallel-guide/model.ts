@@ -5,6 +5,7 @@
  * beam constraint model of Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007.
  */
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { nonlinearFeMethod, peakStrainMetric, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, meshStraight, rectangleSection, sampleAt, strainLimitedStop, type Frame, type PathResult } from '../../solvers'
 
 export const CURVE_POINTS = 41
@@ -24,19 +25,15 @@ export const methods: MethodInfo[] = [
     label: 'Linear beam theory',
     source: 'Roark\u2019s Formulas for Stress and Strain (Young & Budynas, 7th ed., 2002): fixed-guided beam 12EI/L³, two blades in parallel; parasitic shortening (3/5)δ²/L per Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007',
   },
-  {
-    id: 'nonlinear-fe',
-    label: 'Nonlinear beam finite elements',
-    source: 'Geometrically exact planar beam elements (corotational formulation) followed along the equilibrium path under displacement control; both blades meshed, the stage rigid',
-  },
+  nonlinearFeMethod('Geometrically exact planar beam elements (corotational formulation) followed along the equilibrium path under displacement control; both blades meshed, the stage rigid'),
 ]
 
 export const metrics: MetricSpec[] = [
   { key: 'stiffness', label: 'Stiffness', unit: 'N/mm', help: 'Force per mm of stage travel for small travel.' },
   { key: 'maxTravel', label: 'Largest travel', unit: 'mm', help: 'Stage travel at which the blades reach the strain limit (or the end of the working range).' },
   { key: 'parasiticMotion', label: 'Parasitic motion', unit: 'mm', help: 'How far the stage is pulled towards the base (blade shortening) at the largest travel.' },
-  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Largest strain in the blades at the largest travel (a fraction).' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest travel.' },
+  peakStrainMetric('Largest strain in the blades at the largest travel (a fraction).'),
+  strainSafetyMetric('travel'),
 ]
 
 export const axes: { displacement: AxisSpec; force: AxisSpec } = {

@@ -1,25 +1,18 @@
-import type { FamilyDefinition } from '../../schema/types'
-import { build, envelope } from './geometry'
-import { axes, evaluate, methods, metrics } from './model'
-import { params, rules } from './params'
+import { defineFamily } from '../../schema/define'
+import * as geometry from './geometry'
+import * as model from './model'
+import * as params from './params'
 
-export const serpentineSpring: FamilyDefinition = {
+export const serpentineSpring = defineFamily({
   id: 'serpentine-spring',
   name: 'Serpentine spring',
   kind: 'spring',
   summary: 'A meander of thin spans between two pads: a soft, compact return spring printed flat in one piece.',
-  params,
-  rules,
-  methods,
   defaultMethod: 'nonlinear-fe',
-  metrics,
-  axes,
-  evaluate,
-  build,
-  envelope,
+  designMap: { sweep: ['spanLength', 'thickness'] },
   cautions: [
     'The peak strain is checked against the material\u2019s strain limit shown with the result; a spring cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',
     'Polymers creep: a spring held stretched relaxes, loses preload and takes a set, faster when warm; do not rely on a printed spring for a lasting preload.',
     'These are beam-theory estimates; printed spans vary in thickness and stiffness grows with its cube. Confirm on printed parts, and defer to qualified review where a failure could hurt someone.',
   ],
-}
+}, { params, model, geometry })

@@ -5,6 +5,7 @@
  * k = 1/[N b³/(12EI) + (N−1) a b²/(4EI)]; published forms: Fedder, PhD thesis, UC Berkeley, 1994).
  */
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { nonlinearFeMethod, peakStrainMetric, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, meshPolyline, rectangleSection, sampleAt, strainLimitedStop, type Frame, type PathResult } from '../../solvers'
 
 export const CURVE_POINTS = 41
@@ -25,18 +26,14 @@ export const methods: MethodInfo[] = [
     label: 'Castigliano meander formula',
     source: 'Castigliano\u2019s theorem on the meander, bending only (k = EI/∫(y − ȳ)² ds; for an odd number of spans k = 1/[N b³/(12EI) + (N−1) a b²/(4EI)]; cf. Fedder, PhD thesis, UC Berkeley, 1994)',
   },
-  {
-    id: 'nonlinear-fe',
-    label: 'Nonlinear beam finite elements',
-    source: 'Geometrically exact planar beam elements (corotational formulation) on the meander as a frame of spans and connectors, followed along the equilibrium path under displacement control',
-  },
+  nonlinearFeMethod('Geometrically exact planar beam elements (corotational formulation) on the meander as a frame of spans and connectors, followed along the equilibrium path under displacement control'),
 ]
 
 export const metrics: MetricSpec[] = [
   { key: 'stiffness', label: 'Stiffness', unit: 'N/mm', help: 'Force per mm of elongation for small elongation.' },
   { key: 'maxTravel', label: 'Largest elongation', unit: 'mm', help: 'Elongation at which the spring reaches the strain limit (or the end of the working range).' },
-  { key: 'maxStrain', label: 'Peak strain', unit: '', help: 'Largest strain in the spring at the largest elongation (a fraction).' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over the peak strain; 1 when the strain limit sets the largest elongation.' },
+  peakStrainMetric('Largest strain in the spring at the largest elongation (a fraction).'),
+  strainSafetyMetric('elongation'),
 ]
 
 export const axes: { displacement: AxisSpec; force: AxisSpec } = {

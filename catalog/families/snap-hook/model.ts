@@ -4,6 +4,7 @@
  * taper correction taken from the cantilever beam integral rather than a lookup table.
  */
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
+import { strainLimitMetric, strainSafetyMetric } from '../../schema/define'
 
 const DEG = Math.PI / 180
 /** Points along the insertion travel. */
@@ -26,8 +27,8 @@ export const metrics: MetricSpec[] = [
   { key: 'matingForce', label: 'Mating force', unit: 'N', help: 'Push needed to assemble, along the insertion direction, over the entry face.' },
   { key: 'separationForce', label: 'Separation force', unit: 'N', help: 'Pull needed to take the parts apart over the retaining face; empty when the face locks.' },
   { key: 'rootStrain', label: 'Root strain', unit: '', help: 'Bending strain at the arm root at full deflection (a fraction).' },
-  { key: 'strainLimit', label: 'Strain limit', unit: '', help: 'Permissible strain of the material (a fraction).' },
-  { key: 'safetyFactor', label: 'Strain safety factor', unit: '', help: 'Strain limit over root strain; below 1 the hook is overstrained.' },
+  strainLimitMetric('Permissible strain of the material (a fraction).'),
+  strainSafetyMetric('deflection', 'Strain limit over root strain; below 1 the hook is overstrained.'),
 ]
 
 export const axes: { displacement: AxisSpec; force: AxisSpec } = {
