@@ -15,6 +15,7 @@ export function toFamilyView(family: FamilyDefinition) {
     metrics: family.metrics,
     axes: family.axes,
     cautions: family.cautions,
+    designMap: family.designMap ?? null,
   }
 }
 

@@ -6,7 +6,8 @@
  * exact method. Written as a generator so one body serves a synchronous run (CLI, bench,
  * tests) and a cancellable, time-sliced asynchronous one (API, web worker).
  */
-import { evaluateFamily, families as registry } from '../index'
+import { evaluateFamily } from '../evaluate'
+import { families as registry } from '../registry'
 import { builtinMaterials } from '../materials'
 import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'

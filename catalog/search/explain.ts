@@ -1,8 +1,19 @@
 /** The explanation of an empty answer: which constraint ruled candidates out, and how far the nearest was. */
 import type { PrinterRules } from '../printability'
 import { judge, quantitiesOf, type CompiledWindow, type ForceWindow } from '../window'
-import type { Scored } from './engine'
+import type { FamilyDefinition } from '../schema/types'
+import type { CandidateScore } from './candidate'
+import type { SearchMaterial, ShelfEntry } from './types'
 import { num, pct } from './why'
+
+/** The candidate that came nearest (the engine's scored candidate, as the explanation reads it). */
+export interface NearestCandidate {
+  unit: { entry: ShelfEntry; family: FamilyDefinition; material: SearchMaterial }
+  params: Record<string, number>
+  score: CandidateScore
+  area: number
+  volume: number
+}
 
 export interface Tally {
   entries: { released: number; ofKind: number; matchingText: number | null; withMaterial: number }
@@ -10,7 +21,7 @@ export interface Tally {
   reasons: Record<string, number>
   unprintable: string[]
   notes: string[]
-  nearest: Scored | null
+  nearest: NearestCandidate | null
   considered: number
 }
 

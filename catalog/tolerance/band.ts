@@ -4,7 +4,8 @@
  * respect to the method asked for), the curves' envelope on the nominal displacement grid,
  * and each numeric metric's [low, high] over nominal and corners.
  */
-import { evaluateFamily, getFamily, type EvaluateOptions } from '../index'
+import { evaluateFamily, type EvaluateOptions } from '../evaluate'
+import { getFamily } from '../registry'
 import { SolverError, ValidationError } from '../errors'
 import type { Evaluation, FamilyDefinition, MetricValue } from '../schema/types'
 import type { ManufacturingTolerance } from '../window/schema'

@@ -29,7 +29,8 @@ describe('GET /api/families', () => {
         expect(observed.params).toEqual(family.params)
         expect(observed.methods).toEqual(family.methods)
         expect(observed.rules).toEqual(family.rules.map((r) => ({ fields: r.fields })))
-        expect(Object.keys(observed).sort()).toEqual(['axes', 'cautions', 'defaultMethod', 'id', 'kind', 'methods', 'metrics', 'name', 'params', 'rules', 'summary'])
+        expect(observed.designMap).toEqual(family.designMap ?? null)
+        expect(Object.keys(observed).sort()).toEqual(['axes', 'cautions', 'defaultMethod', 'designMap', 'id', 'kind', 'methods', 'metrics', 'name', 'params', 'rules', 'summary'])
       }
     })
   })

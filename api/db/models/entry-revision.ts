@@ -3,7 +3,7 @@ import {
   type NonAttribute, type Sequelize,
 } from 'sequelize'
 import type { Curve, MetricValue } from '../../../catalog'
-import type { Entry, ParamRanges, ParamValues } from './entry'
+import type { EntryId, ParamRanges, ParamValues } from './types'
 import type { User } from './user'
 
 export class ImmutableRevisionError extends Error {
@@ -16,7 +16,7 @@ export class ImmutableRevisionError extends Error {
 /** An immutable snapshot of an entry with the curve and metrics at its default parameters. */
 export class EntryRevision extends Model<InferAttributes<EntryRevision>, InferCreationAttributes<EntryRevision>> {
   declare id: CreationOptional<number>
-  declare entryId: ForeignKey<Entry['id']>
+  declare entryId: ForeignKey<EntryId>
   declare number: number
   declare params: ParamValues
   declare ranges: ParamRanges

@@ -4,18 +4,8 @@ import {
 } from 'sequelize'
 import type { EntryRevision } from './entry-revision'
 import type { TestReport } from './test-report'
+import { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './types'
 import type { User } from './user'
-
-/**
- * draft → in_review → released → retired; a review may send it back to draft or reject it.
- * A change proposal (proposalForId set) that is released becomes the next revision of the
- * entry it proposes for and is itself marked merged.
- */
-export const ENTRY_STATUSES = ['draft', 'in_review', 'released', 'retired', 'rejected', 'merged'] as const
-export type EntryStatus = (typeof ENTRY_STATUSES)[number]
-
-export type ParamValues = Record<string, number | string>
-export type ParamRanges = Record<string, [number, number]>
 
 /** One shelf entry: a module family with curated defaults, allowed ranges and materials. */
 export class Entry extends Model<InferAttributes<Entry>, InferCreationAttributes<Entry>> {

@@ -14,7 +14,7 @@ export { AuditEvent, Entry, EntryRevision, Material, RevokedToken, SavedConfigur
 export { EntryComment, OutboxMessage }
 export { COMMENT_KINDS, type CommentKind } from './entry-comment'
 export { OUTBOX_STATUSES, type OutboxStatus } from './outbox-message'
-export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './entry'
+export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './types'
 export { ImmutableRevisionError } from './entry-revision'
 export { REPORT_STATUSES, type ReportStatus } from './test-report'
 

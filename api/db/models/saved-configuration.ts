@@ -1,8 +1,7 @@
 import {
   DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize,
 } from 'sequelize'
-import type { Entry, ParamValues } from './entry'
-import type { EntryRevision } from './entry-revision'
+import type { EntryId, ParamValues, RevisionId } from './types'
 import type { User } from './user'
 
 /** A force window an engineer configured against: forces N, displacements mm. */
@@ -14,8 +13,8 @@ export interface ForceWindow {
 export class SavedConfiguration extends Model<InferAttributes<SavedConfiguration>, InferCreationAttributes<SavedConfiguration>> {
   declare id: CreationOptional<number>
   declare ownerId: ForeignKey<User['id']>
-  declare entryId: ForeignKey<Entry['id']>
-  declare revisionId: ForeignKey<EntryRevision['id']> | null
+  declare entryId: ForeignKey<EntryId>
+  declare revisionId: ForeignKey<RevisionId> | null
   declare name: string
   declare params: ParamValues
   declare window: ForceWindow | null

@@ -2,8 +2,7 @@ import {
   DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes,
   type NonAttribute, type Sequelize,
 } from 'sequelize'
-import type { Entry } from './entry'
-import type { EntryRevision } from './entry-revision'
+import type { EntryId, RevisionId } from './types'
 import type { User } from './user'
 
 export const REPORT_STATUSES = ['submitted', 'accepted', 'rejected'] as const
@@ -17,8 +16,8 @@ export interface MeasuredCurve {
 /** A measured curve from a test stand (CSV under uploads/), optional photo and print details. */
 export class TestReport extends Model<InferAttributes<TestReport>, InferCreationAttributes<TestReport>> {
   declare id: CreationOptional<number>
-  declare entryId: ForeignKey<Entry['id']>
-  declare revisionId: ForeignKey<EntryRevision['id']> | null
+  declare entryId: ForeignKey<EntryId>
+  declare revisionId: ForeignKey<RevisionId> | null
   declare uploaderId: ForeignKey<User['id']>
   declare reviewerId: ForeignKey<User['id']> | null
   /** Path of the uploaded file, relative to the uploads folder. */

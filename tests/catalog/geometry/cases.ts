@@ -2,7 +2,7 @@
  * Parameter sets the geometry tests build: each family's defaults and corners of its ranges
  * (taken from the family's own schema, so they follow it), checked valid before use.
  */
-import { families } from '../../../catalog/families'
+import { families } from '../../../catalog/registry'
 import type { FamilyDefinition, ParamSpec } from '../../../catalog/schema/types'
 import { validateParams } from '../../../catalog/schema/validate'
 import * as bistable from '../../../catalog/families/bistable-beam/geometry'

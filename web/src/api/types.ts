@@ -32,6 +32,8 @@ export interface Family {
   metrics: MetricSpec[]
   axes: { displacement: AxisSpec; force: AxisSpec }
   cautions: string[]
+  /** The two parameters the design map sweeps first (x across, y up), or null for the map's own choice. */
+  designMap: { sweep: readonly [string, string] } | null
 }
 
 export interface Material {

@@ -2,32 +2,29 @@
  * The design map's computation: each cell is estimated with the family's fast estimator
  * (closed forms, or the bistable table) and, when a force window is given, judged over the
  * tolerance band exactly as search judges candidates. Pure: the web worker runs it, tests
- * call it directly. It imports the families' params and model modules and the search's
- * estimator and judge directly (designMapFamilies.ts), not the registry or the search engine,
- * so the worker's bundle leaves out geometry, exact solvers and the text index.
+ * call it directly. Families are found through the catalog's registry, so a family's folder
+ * is all the map needs of it.
  */
-import { dedicatedEstimatorFor, type FastEstimator } from '@catalog/search/estimators'
+import { getFamily } from '@catalog/registry'
+import { dedicatedEstimatorFor } from '@catalog/search/estimators'
 import { CandidateJudge, type CandidateContext } from '@catalog/search/candidate'
 import { resolveTolerance } from '@catalog/tolerance/defaults'
 import { compileWindow, parseWindow } from '@catalog/window'
-import type { MetricValue } from '@catalog/schema/types'
+import type { FamilyDefinition, FastEstimator, MetricValue } from '@catalog/schema/types'
 import { DESIGN_MAP_SIZE, linspace, type CellState, type DesignMap, type DesignMapRequest } from './designMap'
-import { mapFamilies, type MapFamily } from './designMapFamilies'
 
-export function familyOf(id: string): MapFamily {
-  const family = mapFamilies.find((f) => f.id === id)
-  if (!family) throw new Error(`unknown module family "${id}"`)
-  return family
+export function familyOf(id: string): FamilyDefinition {
+  return getFamily(id)
 }
 
-/** The family's fast estimator; the map needs a dedicated one (every family has one). */
-export function mapEstimatorOf(family: MapFamily): FastEstimator {
-  const estimator = dedicatedEstimatorFor(family)
+/** The family's fast estimator: its folder's own, or search's dedicated one; the map needs one. */
+export function mapEstimatorOf(family: FamilyDefinition): FastEstimator {
+  const estimator = family.search?.estimator ?? dedicatedEstimatorFor(family)
   if (!estimator) throw new Error(`the design map has no fast estimator for the family "${family.id}"`)
   return estimator
 }
 
-function windowJudge(family: MapFamily, estimator: FastEstimator, req: DesignMapRequest): CandidateJudge | null {
+function windowJudge(family: FamilyDefinition, estimator: FastEstimator, req: DesignMapRequest): CandidateJudge | null {
   if (!req.window) return null
   const window = parseWindow(req.window, { materialIds: [] as string[] })
   const compiled = compileWindow(window)

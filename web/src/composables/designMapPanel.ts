@@ -21,13 +21,17 @@ export function sweepOptions(family: Family, ranges: ParamRanges): SweepOption[]
     .filter((o) => o.max > o.min)
 }
 
-/** The pair engineers look at first: a height or length across, the wall thickness up. */
+/**
+ * The pair engineers look at first: the family's own choice (its folder's designMap.sweep) where
+ * the entry lets both vary; otherwise a swept parameter across and the wall thickness up.
+ */
 export function defaultSweep(options: SweepOption[], family: Family): [string, string] | null {
   if (options.length < 2) return null
-  const wall = family.params.find((p) => p.role === 'wall' && options.some((o) => o.key === p.key))?.key
-  const preferredX = ['apexHeight', 'length', 'radius', 'spanLength', 'undercut']
-  const x = preferredX.find((k) => k !== wall && options.some((o) => o.key === k)) ?? options.find((o) => o.key !== wall)!.key
-  const y = wall && wall !== x ? wall : options.find((o) => o.key !== x)!.key
+  const sweepable = (key: string) => options.some((o) => o.key === key)
+  const wall = family.params.find((p) => p.role === 'wall' && sweepable(p.key))?.key
+  const [preferredX, preferredY] = family.designMap?.sweep ?? []
+  const x = preferredX !== undefined && sweepable(preferredX) ? preferredX : options.find((o) => o.key !== wall)!.key
+  const y = preferredY !== undefined && sweepable(preferredY) && preferredY !== x ? preferredY : wall && wall !== x ? wall : options.find((o) => o.key !== x)!.key
   return [x, y]
 }
 

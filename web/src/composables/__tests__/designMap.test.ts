@@ -1,9 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { families } from '@catalog/families'
+import { families } from '@catalog/registry'
 import { estimatorFor } from '@catalog/search'
 import { cellOf, linspace, snapToStep } from '@/composables/designMap'
 import { computeDesignMap, familyOf, mapEstimatorOf } from '@/composables/designMapCompute'
-import { mapFamilies } from '@/composables/designMapFamilies'
 
 const SWITCH = { span: 60, apexHeight: 2.1, thickness: 0.7, depth: 6, postLength: 0 }
 const PETG = { modulus: 2000, strainLimit: 0.02 }
@@ -68,7 +67,7 @@ describe('computeDesignMap (bistable-beam, apex height × thickness)', () => {
 
 describe('the map\u2019s families', () => {
   it('are the registry\u2019s families, with the same parameters, rules, metrics and methods', () => {
-    expect(mapFamilies.map((f) => f.id)).toEqual(families.map((f) => f.id))
+    expect(families.map((f) => familyOf(f.id).id)).toEqual(families.map((f) => f.id))
     for (const family of families) {
       const light = familyOf(family.id)
       expect(light.params).toBe(family.params)
