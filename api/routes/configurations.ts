@@ -6,9 +6,9 @@ import { Router, type NextFunction, type Request, type Response } from 'express'
 import type { AppContext } from '../context'
 import { currentAuth } from '../middleware/authenticate'
 import { allow } from '../middleware/require-role'
-import { checkTarget, resolveFor } from '../services/configure'
+import { checkTarget } from '../services/configure'
 import {
-  createConfiguration, deleteConfiguration, listOwn, openOwn, openShared, parseConfigurationId, shareConfiguration,
+  createConfiguration, deleteConfiguration, listOwn, openOwn, openShared, parseConfigurationId, resolveSaved, shareConfiguration,
   unshareConfiguration, type OpenedConfiguration,
 } from '../services/configurations'
 import { curveCsvFile, stlFile } from '../services/downloads'
@@ -40,8 +40,8 @@ function opened(req: Request): OpenedConfiguration {
 /** The check and the four downloads, the same for an owner's and a shared configuration. */
 function addReadRoutes(router: Router, param: string) {
   const input = (req: Request) => {
-    const { target, raw } = opened(req)
-    return { target, input: resolveFor(target, raw), configuration: { id: opened(req).view.id, name: opened(req).view.name } }
+    const { target } = opened(req)
+    return { target, input: resolveSaved(opened(req)), configuration: { id: opened(req).view.id, name: opened(req).view.name } }
   }
   router.get(`/:${param}/check`, allow('engineer'), async function check(req: Request, res: Response) {
     const { target, input: resolved } = input(req)

@@ -9,7 +9,7 @@ import { z } from 'zod'
 import { validateParams } from '../../catalog'
 import type { AppContext } from '../context'
 import type { Entry, EntryRevision, SavedConfiguration, User } from '../db'
-import { notFound } from '../errors'
+import { HttpError, notFound, type FieldIssue } from '../errors'
 import { bodySchema, parseBody, textField } from '../validation'
 import { recordAudit } from './audit'
 import { configurationShape, type RawConfiguration } from './configuration-input'
@@ -46,6 +46,12 @@ export interface ConfigurationView {
   shareUrl: string | null
   /** True when read through a share link (nothing can be changed through it). */
   readOnly: boolean
+  /**
+   * Saved values the checks no longer accept (bounds tightened since it was saved, e.g. a
+   * printer outside 0.1–2 mm), by field; empty when it checks as saved. Its check and
+   * downloads answer 400 naming the same fields until it is saved again with good values.
+   */
+  problems: FieldIssue[]
   notices: string[]
   createdAt: string
   updatedAt: string
@@ -67,8 +73,36 @@ function revisionNotice(saved: RevisionRef, current: RevisionRef): string | null
   return `The entry has moved on to revision ${current.number} since this configuration was saved (${from}); this configuration keeps its saved parameters and the allowed ranges it was saved under.`
 }
 
+/** Said on a configuration whose saved values are no longer accepted. */
+export const OUT_OF_RANGE_NOTICE =
+  'This configuration was saved with values Flexshelf no longer accepts; correct them in the configurator and save it again:'
+
+/** The saved values' problems under today's checks: empty when they resolve. */
+export function problemsOf(target: ConfigureTarget, raw: RawConfiguration): FieldIssue[] {
+  try {
+    resolveFor(target, raw)
+    return []
+  } catch (err) {
+    if (err instanceof HttpError && err.code === 'validation_failed') return (err.details?.issues as FieldIssue[] | undefined) ?? []
+    throw err
+  }
+}
+
+/** The configuration resolved for a check or download; 400 naming every field when its saved values are out of range. */
+export function resolveSaved(opened: OpenedConfiguration) {
+  try {
+    return resolveFor(opened.target, opened.raw)
+  } catch (err) {
+    if (err instanceof HttpError && err.code === 'validation_failed') {
+      throw new HttpError(400, 'validation_failed', `this saved configuration holds values that are no longer accepted: ${err.message}`, err.details)
+    }
+    throw err
+  }
+}
+
 function toView(loaded: Loaded, target: ConfigureTarget, readOnly: boolean): ConfigurationView {
   const { configuration: c, entry, savedRevision } = loaded
+  const problems = problemsOf(target, rawOf(c))
   const saved = revisionRef(savedRevision)
   const current = revisionRef(entry.currentRevision)
   return {
@@ -87,7 +121,8 @@ function toView(loaded: Loaded, target: ConfigureTarget, readOnly: boolean): Con
     shareToken: readOnly ? null : c.shareToken,
     shareUrl: readOnly || !c.shareToken ? null : sharePath(c.shareToken),
     readOnly,
-    notices: target.notices,
+    problems,
+    notices: problems.length ? [...target.notices, `${OUT_OF_RANGE_NOTICE} ${problems.map((p) => p.message).join('; ')}.`] : target.notices,
     createdAt: c.createdAt.toISOString(),
     updatedAt: c.updatedAt.toISOString(),
   }

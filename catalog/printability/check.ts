@@ -8,7 +8,7 @@ import type { ParamRanges } from '../schema/validate'
 import type { FamilyDefinition, ParamSpec } from '../schema/types'
 import type { PrinterProfile } from '../window/schema'
 import {
-  LAYER_TOLERANCE, MAX_LAYER_PER_NOZZLE, PERIMETER_TOLERANCE, nearest, perimetersOf, printableHeights, printableWalls, printerRules, type PrinterRules,
+  LAYER_TOLERANCE, MAX_LAYER_PER_NOZZLE, PERIMETER_TOLERANCE, nearestPrintableHeight, nearestPrintableWall, perimetersOf, printerRules, type PrinterRules,
 } from './profile'
 
 export type CheckLevel = 'ok' | 'warn' | 'fail'
@@ -55,8 +55,8 @@ function wallCheck(spec: ParamSpec, value: number, rules: PrinterRules, range: [
   const id = `wall.${spec.key}`
   const perimeters = perimetersOf(rules, value)
   const whole = Math.round(perimeters)
-  const choices = printableWalls(rules, range[0], range[1])
-  const target = nearest(choices, value)
+  // found in constant time, not by listing every printable wall (a fine printer lists thousands)
+  const target = nearestPrintableWall(rules, range[0], range[1], value)
   const fix = target !== null && target !== value ? { key: spec.key, from: value, to: target } : undefined
   const line = `${mm(rules.lineWidth)} lines`
   if (value < rules.minimumWall - 1e-9) {
@@ -76,7 +76,7 @@ function heightCheck(spec: ParamSpec, value: number, rules: PrinterRules, range:
   if (Math.abs(layers - Math.round(layers)) <= LAYER_TOLERANCE) {
     return { id, level: 'ok', message: `${spec.label} ${mm(value)} is ${Math.round(layers)} layers of ${mm(rules.layer)}` }
   }
-  const target = nearest(printableHeights(rules, range[0], range[1]), value)
+  const target = nearestPrintableHeight(rules, range[0], range[1], value)
   const fix = target !== null ? { key: spec.key, from: value, to: target } : undefined
   const offer = fix ? `; ${mm(fix.to)} is ${Math.round(fix.to / rules.layer)} whole layers` : ''
   return { id, level: 'warn', message: `${spec.label} ${mm(value)} is ${layers.toFixed(2)} layers of ${mm(rules.layer)}; the slicer will round the print height${offer}`, fix }

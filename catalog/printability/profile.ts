@@ -41,19 +41,60 @@ export function printerRules(profile: Partial<PrinterProfile> & { lineWidth?: nu
 
 const tidy = (v: number) => Number(v.toFixed(6))
 
-/** Wall thicknesses the printer lays down as whole perimeters (≥ the minimum) inside [lo, hi], mm. */
-export function printableWalls(rules: PrinterRules, lo: number, hi: number): number[] {
+/**
+ * Most values printableWalls and printableHeights list. The printer bounds (window schema)
+ * keep real counts in the hundreds; the cap keeps the work bounded whatever a caller passes.
+ */
+export const MAX_PRINTABLE_VALUES = 1000
+
+/** Multiples n × unit for n from `first` while n × unit ≤ hi, at most `limit` of them evenly picked. */
+function multiples(unit: number, first: number, hi: number, limit: number): number[] {
+  if (!(unit > 0) || !Number.isFinite(hi)) return []
+  const last = Math.floor(hi / unit + 1e-9)
+  const count = last - first + 1
+  if (!(count > 0)) return []
+  const take = Math.max(1, Math.min(count, Math.floor(limit)))
   const out: number[] = []
-  const first = Math.max(MIN_PERIMETERS, Math.ceil(lo / rules.lineWidth - 1e-9))
-  for (let n = first; n * rules.lineWidth <= hi + 1e-9; n++) out.push(tidy(n * rules.lineWidth))
+  for (let i = 0; i < take; i++) {
+    const n = take === 1 ? first : first + Math.round((i * (count - 1)) / (take - 1))
+    out.push(tidy(n * unit))
+  }
   return out
 }
 
+/** The multiple n × unit (first ≤ n, n × unit ≤ hi) nearest to v, the lower on a tie; null when there is none. Constant time. */
+function nearestMultiple(unit: number, first: number, hi: number, v: number): number | null {
+  if (!(unit > 0) || !Number.isFinite(hi) || !Number.isFinite(v)) return null
+  const last = Math.floor(hi / unit + 1e-9)
+  if (last < first) return null
+  const x = v / unit
+  const below = Math.min(last, Math.max(first, Math.floor(x)))
+  const above = Math.min(last, Math.max(first, Math.ceil(x)))
+  const pick = Math.abs(above * unit - v) < Math.abs(below * unit - v) - 1e-12 ? above : below
+  return tidy(pick * unit)
+}
+
+const firstWall = (rules: PrinterRules, lo: number) => Math.max(MIN_PERIMETERS, Math.ceil(lo / rules.lineWidth - 1e-9))
+const firstHeight = (rules: PrinterRules, lo: number) => Math.max(1, Math.ceil(lo / rules.layer - 1e-9))
+
+/** Wall thicknesses the printer lays down as whole perimeters (≥ the minimum) inside [lo, hi], mm (at most `limit`, evenly picked). */
+export function printableWalls(rules: PrinterRules, lo: number, hi: number, limit = MAX_PRINTABLE_VALUES): number[] {
+  return multiples(rules.lineWidth, firstWall(rules, lo), hi, limit)
+}
+
 /** Print heights that are whole layers inside [lo, hi], mm (at most `limit` of them, evenly picked). */
-export function printableHeights(rules: PrinterRules, lo: number, hi: number): number[] {
-  const out: number[] = []
-  for (let n = Math.max(1, Math.ceil(lo / rules.layer - 1e-9)); n * rules.layer <= hi + 1e-9; n++) out.push(tidy(n * rules.layer))
-  return out
+export function printableHeights(rules: PrinterRules, lo: number, hi: number, limit = MAX_PRINTABLE_VALUES): number[] {
+  return multiples(rules.layer, firstHeight(rules, lo), hi, limit)
+}
+
+/** The printable wall inside [lo, hi] nearest to v, or null. */
+export function nearestPrintableWall(rules: PrinterRules, lo: number, hi: number, v: number): number | null {
+  return nearestMultiple(rules.lineWidth, firstWall(rules, lo), hi, v)
+}
+
+/** The whole-layer height inside [lo, hi] nearest to v, or null. */
+export function nearestPrintableHeight(rules: PrinterRules, lo: number, hi: number, v: number): number | null {
+  return nearestMultiple(rules.layer, firstHeight(rules, lo), hi, v)
 }
 
 /** The member of `values` nearest to v (the lower on a tie), or null when there is none. */

@@ -1,6 +1,6 @@
 export { windowQuantities, windowKinds, familyKindsForWindow, quantitiesOf } from './quantities'
 export type { WindowKind, WindowQuantity } from './quantities'
-export { parseWindow, DEFAULT_LIMIT, MAX_LIMIT } from './schema'
+export { parseWindow, DEFAULT_LIMIT, MAX_LIMIT, PRINTER_BOUNDS, TOLERANCE_BOUNDS, FOOTPRINT_BOUNDS } from './schema'
 export type { ForceWindow, WindowRange, PrinterProfile, ManufacturingTolerance, ParseWindowOptions } from './schema'
 export { judge, judgeWithBand, judgeStrain, verdictOf, worstVerdict, EDGE_FRACTION, MARGIN_LIMIT } from './judge'
 export type { Judgement, ConstraintCheck, StrainCheck, Verdict, MetricBand, Metrics, JudgeOptions } from './judge'

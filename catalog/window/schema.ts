@@ -9,7 +9,10 @@
 import { z } from 'zod'
 import { ValidationError, type FieldIssue } from '../errors'
 import { builtinMaterials } from '../materials'
+import { FOOTPRINT_BOUNDS, PRINTER_BOUNDS, TOLERANCE_BOUNDS } from './bounds'
 import { windowKinds, windowQuantities, type WindowKind } from './quantities'
+
+export { FOOTPRINT_BOUNDS, PRINTER_BOUNDS, TOLERANCE_BOUNDS } from './bounds'
 
 export interface WindowRange {
   min?: number
@@ -70,19 +73,21 @@ function rangeSchema(key: string, unit: string) {
     .optional()
 }
 
-function positive(field: string, unit: string, max: number) {
-  return finite(field, unit)
-    .refine((v) => v > 0, { message: `${field} must be above 0${unit ? ` ${unit}` : ''}` })
-    .refine((v) => v <= max, { message: `${field} must be at most ${max}${unit ? ` ${unit}` : ''}` })
+function within(field: string, unit: string, bounds: { min: number; max: number }, words = '') {
+  const u = unit ? ` ${unit}` : ''
+  return finite(field, unit).refine((v) => v >= bounds.min && v <= bounds.max, {
+    message: `${field} must be from ${bounds.min} to ${bounds.max}${u}${words}`,
+  })
 }
 
 const footprintSchema = z.strictObject(
-  { length: positive('footprint.length', 'mm', 2000).optional(), width: positive('footprint.width', 'mm', 2000).optional() },
+  { length: within('footprint.length', 'mm', FOOTPRINT_BOUNDS).optional(), width: within('footprint.width', 'mm', FOOTPRINT_BOUNDS).optional() },
   { error: (iss) => (iss.code === 'unrecognized_keys' ? undefined : 'footprint must be an object like {"length": 45, "width": 15} in mm') },
 ).optional()
 
-const printerSchema = z.strictObject(
-  { nozzle: positive('printer.nozzle', 'mm', 2).optional(), layer: positive('printer.layer', 'mm', 1.5).optional() },
+/** A printer profile: nozzle and layer in their bounds, the layer not above the nozzle. */
+export const printerSchema = z.strictObject(
+  { nozzle: within('printer.nozzle', 'mm', PRINTER_BOUNDS.nozzle).optional(), layer: within('printer.layer', 'mm', PRINTER_BOUNDS.layer).optional() },
   { error: (iss) => (iss.code === 'unrecognized_keys' ? undefined : 'printer must be an object like {"nozzle": 0.4, "layer": 0.2} in mm') },
 ).superRefine((p, ctx) => {
   // A layer taller than the nozzle cannot be laid down (common practice: at most about 0.8 × nozzle).
@@ -91,10 +96,10 @@ const printerSchema = z.strictObject(
   }
 }).optional()
 
-const toleranceSchema = z.strictObject(
+export const toleranceSchema = z.strictObject(
   {
-    thickness: finite('tolerance.thickness', 'mm').refine((v) => v >= 0 && v <= 0.5, { message: 'tolerance.thickness must be between 0 and 0.5 mm' }).optional(),
-    modulus: finite('tolerance.modulus', '').refine((v) => v >= 0 && v < 0.9, { message: 'tolerance.modulus must be a fraction from 0 to below 0.9 (0.1 = ±10 %)' }).optional(),
+    thickness: within('tolerance.thickness', 'mm', TOLERANCE_BOUNDS.thickness).optional(),
+    modulus: within('tolerance.modulus', '', TOLERANCE_BOUNDS.modulus, ' (a fraction: 0.1 = ±10 %)').optional(),
   },
   { error: (iss) => (iss.code === 'unrecognized_keys' ? undefined : 'tolerance must be an object like {"thickness": 0.05, "modulus": 0.1}') },
 ).optional()

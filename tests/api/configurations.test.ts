@@ -259,3 +259,36 @@ describe('a shared configuration of an entry the viewer may not see', () => {
     expect((await as(librarian).get(`/api/shared/${token}`)).status).toBe(200)
   })
 })
+
+describe('a configuration saved before the physical bounds (issue 11)', () => {
+  // the hostile printer of the issue: saved and shared, its link was a kill switch for anyone opening it
+  const HOSTILE = { nozzle: 1e-300, layer: 1e-300 }
+
+  it('cannot be saved any more: 400 naming the printer fields', async () => {
+    const res = await as(owner).post('/api/configurations', { entryId: hook.id, name: 'Hostile printer', params: HOOK_PARAMS, printer: HOSTILE })
+    expect(res.status).toBe(400)
+    expect(res.body.error.details.issues.map((i: { field: string }) => i.field).sort()).toEqual(['printer.layer', 'printer.nozzle'])
+  })
+
+  it('opens with a clear message from its owner, the list and its link, and its check and downloads answer 400 naming the field', async () => {
+    const c = await save({ name: 'Saved with an old printer' })
+    // written as an older server stored it, before the bounds
+    await t.context.db.models.SavedConfiguration.update({ printer: HOSTILE }, { where: { id: c.id } })
+    const token = (await as(owner).post(`/api/configurations/${c.id}/share`)).body.shareToken
+    const own = await as(owner).get(`/api/configurations/${c.id}`)
+    const shared = await as(colleague).get(`/api/shared/${token}`)
+    for (const res of [own, shared]) {
+      expect(res.status).toBe(200)
+      expect(res.body.configuration.problems.map((p: { field: string }) => p.field).sort()).toEqual(['printer.layer', 'printer.nozzle'])
+      expect(res.body.configuration.notices.join(' ')).toMatch(/saved with values Flexshelf no longer accepts; correct them in the configurator and save it again: printer.nozzle must be from 0.1 to 2 mm/)
+    }
+    const list = await as(owner).get('/api/configurations')
+    expect(list.status).toBe(200)
+    for (const path of [`/api/configurations/${c.id}/check`, `/api/shared/${token}/check`, `/api/shared/${token}/stl`, `/api/configurations/${c.id}/datasheet.pdf`]) {
+      const res = await as(path.startsWith('/api/shared') ? colleague : owner).get(path)
+      expect(res.status, path).toBe(400)
+      expect(res.body.error.message).toMatch(/^this saved configuration holds values that are no longer accepted: /)
+      expect(res.body.error.details.issues.map((i: { field: string }) => i.field)).toContain('printer.nozzle')
+    }
+  })
+})

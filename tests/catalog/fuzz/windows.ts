@@ -4,7 +4,7 @@
  */
 import fc from 'fast-check'
 import { builtinMaterials } from '../../../catalog/index'
-import { windowKinds, windowQuantities, type WindowKind } from '../../../catalog/window'
+import { PRINTER_BOUNDS, TOLERANCE_BOUNDS, windowKinds, windowQuantities, type WindowKind } from '../../../catalog/window'
 import { notANumber } from './arbitraries'
 
 export type WindowCase = { tag: 'valid'; window: Record<string, unknown> } | { tag: 'fault'; window: unknown; field: string }
@@ -29,9 +29,12 @@ export function validWindow(kind: WindowKind): fc.Arbitrary<Record<string, unkno
   for (const q of windowQuantities[kind]) fields[q.key] = range
   fields.footprint = fc.record({ length: fc.double({ min: 1, max: 2000, noNaN: true }), width: fc.double({ min: 1, max: 2000, noNaN: true }) }, { requiredKeys: [] })
   fields.materials = fc.subarray(MATERIAL_IDS, { minLength: 1 })
-  fields.printer = fc.double({ min: 0.1, max: 2, noNaN: true }).chain((nozzle) =>
-    fc.double({ min: 0.01, max: Math.min(1.5, nozzle), noNaN: true }).map((layer) => ({ nozzle, layer })))
-  fields.tolerance = fc.record({ thickness: fc.double({ min: 0, max: 0.5, noNaN: true }), modulus: fc.double({ min: 0, max: 0.89, noNaN: true }) }, { requiredKeys: [] })
+  fields.printer = fc.double({ min: PRINTER_BOUNDS.nozzle.min, max: PRINTER_BOUNDS.nozzle.max, noNaN: true }).chain((nozzle) =>
+    fc.double({ min: PRINTER_BOUNDS.layer.min, max: Math.min(PRINTER_BOUNDS.layer.max, nozzle), noNaN: true }).map((layer) => ({ nozzle, layer })))
+  fields.tolerance = fc.record({
+    thickness: fc.double({ min: TOLERANCE_BOUNDS.thickness.min, max: TOLERANCE_BOUNDS.thickness.max, noNaN: true }),
+    modulus: fc.double({ min: TOLERANCE_BOUNDS.modulus.min, max: TOLERANCE_BOUNDS.modulus.max, noNaN: true }),
+  }, { requiredKeys: [] })
   fields.text = fc.string({ maxLength: 40 })
   fields.limit = fc.integer({ min: 1, max: 200 })
   return fc.record(fields, { requiredKeys: ['kind'] })

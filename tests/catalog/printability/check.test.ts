@@ -1,6 +1,9 @@
+import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import type { FamilyDefinition } from '../../../catalog/schema/types'
-import { checkPrintability, printableWalls, printerRules } from '../../../catalog/printability'
+import {
+  checkPrintability, MAX_PRINTABLE_VALUES, nearest, nearestPrintableHeight, nearestPrintableWall, printableHeights, printableWalls, printerRules,
+} from '../../../catalog/printability'
 
 // Rules under test are common FDM practice (REFERENCES.md §8): flexures at least two
 // extrusion widths thick, ideally whole perimeters; line width taken as the nozzle width.
@@ -73,5 +76,36 @@ describe('checkPrintability', () => {
     expect(report.notes.some((n) => /bending plane is the build plane/.test(n) && /common practice/.test(n))).toBe(true)
     expect(report.notes.some((n) => /100 % infill/.test(n))).toBe(true)
     expect(report.notes.some((n) => /Fillet flexure roots/.test(n))).toBe(true)
+  })
+})
+
+describe('loops whose count comes from the printer (issue 11)', () => {
+  it('lists at most MAX_PRINTABLE_VALUES walls and heights, evenly picked, however fine the printer', () => {
+    // the hostile printer of the issue: one array entry per 1e-300 mm line would never end
+    const fine = printerRules({ nozzle: 1e-300, layer: 1e-300 })
+    const walls = printableWalls(fine, 0.3, 2)
+    const heights = printableHeights(fine, 1, 40)
+    expect(walls.length).toBe(MAX_PRINTABLE_VALUES)
+    expect(heights.length).toBe(MAX_PRINTABLE_VALUES)
+    expect(Math.min(...heights)).toBeGreaterThanOrEqual(1 - 1e-9)
+    expect(Math.max(...heights)).toBeLessThanOrEqual(40 + 1e-9)
+  })
+
+  it('answers a check on such a printer with its usual checks, in a bounded number of steps', () => {
+    const report = checkPrintability(hook, { length: 15, rootThickness: 1.2, tipThickness: 1.1, width: 6 }, { nozzle: 1e-300, layer: 7e-7 })
+    expect(report.checks.map((c) => c.id)).toEqual(['layer', 'wall.rootThickness', 'wall.tipThickness', 'height.width'])
+  })
+
+  it('finds the same nearest wall and height in constant time as by listing every one (the lower on a tie)', () => {
+    fc.assert(fc.property(
+      fc.constantFrom(0.25, 0.4, 0.6, 0.8), fc.constantFrom(0.08, 0.1, 0.2, 0.3),
+      fc.double({ min: 0.2, max: 8, noNaN: true }), fc.double({ min: 0, max: 6, noNaN: true }), fc.double({ min: 0.1, max: 10, noNaN: true }),
+      (nozzle, layer, v, lo, span) => {
+        const rules = printerRules({ nozzle, layer })
+        const hi = lo + span
+        expect(nearestPrintableWall(rules, lo, hi, v)).toBe(nearest(printableWalls(rules, lo, hi, Infinity), v))
+        expect(nearestPrintableHeight(rules, lo, hi, v)).toBe(nearest(printableHeights(rules, lo, hi, Infinity), v))
+      },
+    ), { numRuns: 300, seed: 11 })
   })
 })

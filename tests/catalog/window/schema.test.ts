@@ -74,15 +74,41 @@ describe('parseWindow', () => {
 
   it('checks the printer, tolerance, footprint, text and limit fields', () => {
     const observed = issuesOf({
-      kind: 'guide', printer: { nozzle: 0.4, layer: 0.6 }, tolerance: { thickness: 1, modulus: -0.1 },
+      kind: 'guide', printer: { nozzle: 0.4, layer: 0.6 }, tolerance: { thickness: 1.5, modulus: -0.1 },
       footprint: { length: 0 }, text: 7, limit: 2.5,
     })
     const byField = Object.fromEntries(observed.map((i) => [i.field, i.message]))
     expect(byField['printer.layer']).toBe('printer.layer (0.6 mm) must not be above printer.nozzle (0.4 mm)')
-    expect(byField['tolerance.thickness']).toBe('tolerance.thickness must be between 0 and 0.5 mm')
-    expect(byField['tolerance.modulus']).toMatch(/^tolerance.modulus must be a fraction/)
-    expect(byField['footprint.length']).toBe('footprint.length must be above 0 mm')
+    expect(byField['tolerance.thickness']).toBe('tolerance.thickness must be from 0 to 1 mm')
+    expect(byField['tolerance.modulus']).toBe('tolerance.modulus must be from 0 to 0.5 (a fraction: 0.1 = ±10 %)')
+    expect(byField['footprint.length']).toBe('footprint.length must be from 1 to 2000 mm')
     expect(byField.text).toBe('text must be a string')
     expect(byField.limit).toBe('limit must be a whole number from 1 to 200')
+  })
+})
+
+describe('physical bounds of the printer, tolerance and footprint (issue 11)', () => {
+  // the values a hostile request used: a 1e-300 mm nozzle built one array entry per printer
+  // line and killed the server; a 7e-7 mm layer made one check take 7.6 s
+  it('refuses a nozzle outside 0.1–2 mm and a layer outside 0.02–1 mm, naming the field and the bounds', () => {
+    const issues = (printer: object) => issuesOf({ kind: 'hinge', printer })
+    expect(issues({ nozzle: 1e-300 })).toEqual([{ field: 'printer.nozzle', message: 'printer.nozzle must be from 0.1 to 2 mm' }])
+    expect(issues({ nozzle: 0.4, layer: 7e-7 })).toEqual([{ field: 'printer.layer', message: 'printer.layer must be from 0.02 to 1 mm' }])
+    expect(issues({ nozzle: 2.5 })[0].field).toBe('printer.nozzle')
+    expect(issues({ layer: 1.2 })[0].field).toBe('printer.layer')
+    expect(issues({ nozzle: 0.1, layer: 0.02 })).toEqual([])
+    expect(issues({ nozzle: 2, layer: 1 })).toEqual([])
+  })
+
+  it('refuses a wall tolerance over 1 mm and a modulus tolerance over 50 %', () => {
+    expect(issuesOf({ kind: 'hinge', tolerance: { thickness: 1.01 } })[0].field).toBe('tolerance.thickness')
+    expect(issuesOf({ kind: 'hinge', tolerance: { modulus: 0.51 } })[0].field).toBe('tolerance.modulus')
+    expect(issuesOf({ kind: 'hinge', tolerance: { thickness: 1, modulus: 0.5 } })).toEqual([])
+  })
+
+  it('refuses a footprint side under 1 mm or over 2 m', () => {
+    expect(issuesOf({ kind: 'hinge', footprint: { length: 1e-300 } })[0].field).toBe('footprint.length')
+    expect(issuesOf({ kind: 'hinge', footprint: { width: 2001 } })[0].field).toBe('footprint.width')
+    expect(issuesOf({ kind: 'hinge', footprint: { length: 1, width: 2000 } })).toEqual([])
   })
 })

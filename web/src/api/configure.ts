@@ -106,6 +106,8 @@ export interface SavedConfiguration {
   shareUrl: string | null
   /** True when opened through a share link. */
   readOnly: boolean
+  /** Saved values no longer accepted (bounds tightened since), by field; empty when it checks as saved. */
+  problems: Array<{ field: string; message: string }>
   notices: string[]
   createdAt: string
   updatedAt: string

@@ -4,6 +4,7 @@
  * this only holds what the engineer picks and applies a fix to the form.
  */
 import type { ParamFix } from '@catalog/printability/check'
+import { PRINTER_BOUNDS, TOLERANCE_BOUNDS } from '@catalog/window/bounds'
 import type { PrinterSetting, ToleranceSetting } from '@/api/configure'
 import type { ParamFormModel } from './paramForm'
 
@@ -32,9 +33,9 @@ export function printerIssues(printer: { nozzle: number | null; layer: number | 
   const out = { nozzle: '', layer: '' }
   const { nozzle, layer } = printer
   if (nozzle === null || !Number.isFinite(nozzle)) out.nozzle = 'Nozzle is needed (mm)'
-  else if (nozzle <= 0 || nozzle > 2) out.nozzle = 'Nozzle must be above 0 and at most 2 mm'
+  else if (nozzle < PRINTER_BOUNDS.nozzle.min || nozzle > PRINTER_BOUNDS.nozzle.max) out.nozzle = `Nozzle must be from ${PRINTER_BOUNDS.nozzle.min} to ${PRINTER_BOUNDS.nozzle.max} mm`
   if (layer === null || !Number.isFinite(layer)) out.layer = 'Layer height is needed (mm)'
-  else if (layer <= 0 || layer > 1.5) out.layer = 'Layer height must be above 0 and at most 1.5 mm'
+  else if (layer < PRINTER_BOUNDS.layer.min || layer > PRINTER_BOUNDS.layer.max) out.layer = `Layer height must be from ${PRINTER_BOUNDS.layer.min} to ${PRINTER_BOUNDS.layer.max} mm`
   else if (nozzle !== null && nozzle > 0 && layer > nozzle) out.layer = `Layer height must not be above the nozzle (${nozzle} mm)`
   return out
 }
@@ -43,9 +44,13 @@ export function printerIssues(printer: { nozzle: number | null; layer: number | 
 export function toleranceIssues(t: { thickness: number | null; modulusPercent: number | null }): Record<'thickness' | 'modulus', string> {
   const out = { thickness: '', modulus: '' }
   if (t.thickness === null || !Number.isFinite(t.thickness)) out.thickness = 'Thickness tolerance is needed (mm)'
-  else if (t.thickness < 0 || t.thickness > 0.5) out.thickness = 'Thickness tolerance must be between 0 and 0.5 mm'
+  else if (t.thickness < TOLERANCE_BOUNDS.thickness.min || t.thickness > TOLERANCE_BOUNDS.thickness.max) {
+    out.thickness = `Thickness tolerance must be from ${TOLERANCE_BOUNDS.thickness.min} to ${TOLERANCE_BOUNDS.thickness.max} mm`
+  }
   if (t.modulusPercent === null || !Number.isFinite(t.modulusPercent)) out.modulus = 'Modulus tolerance is needed (%)'
-  else if (t.modulusPercent < 0 || t.modulusPercent >= 90) out.modulus = 'Modulus tolerance must be from 0 to below 90 %'
+  else if (t.modulusPercent < TOLERANCE_BOUNDS.modulus.min * 100 || t.modulusPercent > TOLERANCE_BOUNDS.modulus.max * 100) {
+    out.modulus = `Modulus tolerance must be from ${TOLERANCE_BOUNDS.modulus.min * 100} to ${TOLERANCE_BOUNDS.modulus.max * 100} %`
+  }
   return out
 }
 

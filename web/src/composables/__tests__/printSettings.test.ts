@@ -33,11 +33,14 @@ describe('printer and tolerance settings', () => {
     expect(printerIssues({ nozzle: 0.4, layer: 0.5 }).layer).toBe('Layer height must not be above the nozzle (0.4 mm)')
     expect(printerIssues({ nozzle: null, layer: 0.2 }).nozzle).toBe('Nozzle is needed (mm)')
     expect(printerIssues({ nozzle: 0.4, layer: 0.2 })).toEqual({ nozzle: '', layer: '' })
+    expect(printerIssues({ nozzle: 1e-300, layer: 1e-300 })).toEqual({ nozzle: 'Nozzle must be from 0.1 to 2 mm', layer: 'Layer height must be from 0.02 to 1 mm' })
   })
 
   it('checks the tolerance inputs and sends the modulus as a fraction', () => {
-    expect(toleranceIssues({ thickness: 0.6, modulusPercent: 10 }).thickness).toMatch(/between 0 and 0.5 mm/)
-    expect(toleranceIssues({ thickness: 0.05, modulusPercent: 95 }).modulus).toMatch(/below 90 %/)
+    // the bounds are the window schema's (catalog/window/bounds.ts)
+    expect(toleranceIssues({ thickness: 1.2, modulusPercent: 10 }).thickness).toBe('Thickness tolerance must be from 0 to 1 mm')
+    expect(toleranceIssues({ thickness: 0.6, modulusPercent: 10 }).thickness).toBe('')
+    expect(toleranceIssues({ thickness: 0.05, modulusPercent: 55 }).modulus).toBe('Modulus tolerance must be from 0 to 50 %')
     expect(toleranceSetting({ thickness: 0.05, modulusPercent: 7 })).toEqual({ thickness: 0.05, modulus: 0.07 })
   })
 })
