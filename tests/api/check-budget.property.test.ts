@@ -52,7 +52,7 @@ describe('a check under the compute budget', () => {
       const outcome = await compute.check(familyId, {}, { method, tolerance: window.tolerance }, window.printer ?? {}).catch((e: unknown) => e)
       expect((outcome as { code?: string }).code, `${familyId} ${JSON.stringify({ printer: p, tolerance: t })}`).not.toBe('compute_budget_exceeded')
       if (outcome instanceof Error) throw outcome
-      expect(outcome.printability.checks.length).toBeGreaterThan(0)
+      expect((outcome as Awaited<ReturnType<typeof compute.check>>).printability.checks.length).toBeGreaterThan(0)
     }), { numRuns: 80, seed: 1111 })
     // the generators must reach the accepted side often enough for the property to mean something
     expect(accepted).toBeGreaterThan(10)
