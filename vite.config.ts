@@ -13,6 +13,8 @@ export default defineConfig({
       '@catalog': fileURLToPath(new URL('./catalog', import.meta.url)),
     },
   },
+  // module workers: the bistable table (table-data.json) stays its own chunk, fetched on first use
+  worker: { format: 'es' },
   build: {
     outDir: fileURLToPath(new URL('./dist/web', import.meta.url)),
     emptyOutDir: true,

@@ -10,9 +10,9 @@
 import { availableParallelism, loadavg } from 'node:os'
 import { closedFormMetrics } from '../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../catalog/families/bistable-beam/curve-metrics'
-import { BISTABLE_TABLE_TOLERANCE, estimateBistable } from '../../catalog/families/bistable-beam/estimate'
+import { bistableTableTolerance, estimateBistable } from '../../catalog/families/bistable-beam/estimate'
 import { FE_ELEMENTS, solveBistableCurve, solveBistableFe, type BistableGeometry } from '../../catalog/families/bistable-beam/fe-model'
-import { TABLE } from '../../catalog/families/bistable-beam/table-data'
+import { bistableTable } from '../../catalog/families/bistable-beam/table-store'
 import { caseErrors, validationCases } from '../../catalog/families/bistable-beam/table-validation'
 
 const CASES: Array<{ label: string; g: BistableGeometry }> = [
@@ -88,7 +88,7 @@ export function run(): { rows: BistableBenchRow[]; interpolation: Record<string,
     })
   }
   // interpolation error of the table against direct solves over seeded valid parameters
-  const { rows: cases } = caseErrors(TABLE, validationCases(5, 240))
+  const { rows: cases } = caseErrors(bistableTable(), validationCases(5, 240))
   const rigid = cases.filter((r) => r.case.postLength === 0).map((r) => 100 * Math.max(r.errors.peakForce, r.errors.valleyForce))
   const posted = cases.filter((r) => r.case.postLength > 0).map((r) => 100 * Math.max(r.errors.peakForce, r.errors.valleyForce))
   const q = (a: number[], f: number) => [...a].sort((x, y) => x - y)[Math.min(a.length - 1, Math.floor(f * a.length))]
@@ -99,7 +99,7 @@ export function run(): { rows: BistableBenchRow[]; interpolation: Record<string,
     interpolation: {
       'rigid ends: median %': q(rigid, 0.5), 'rigid ends: p90 %': q(rigid, 0.9), 'rigid ends: max %': Math.max(...rigid),
       'side posts: median %': q(posted, 0.5), 'side posts: p90 %': q(posted, 0.9), 'side posts: max %': Math.max(...posted),
-      'reported: peak max %': 100 * BISTABLE_TABLE_TOLERANCE.peakForce, 'reported: valley max %': 100 * BISTABLE_TABLE_TOLERANCE.valleyForce,
+      'reported: peak max %': 100 * bistableTableTolerance().peakForce, 'reported: valley max %': 100 * bistableTableTolerance().valleyForce,
     },
     counts: { rigid: rigid.length, posted: posted.length },
   }

@@ -45,12 +45,15 @@ export interface TableValidation {
   flagBand: number
 }
 
-export interface BistableTable {
+/** The table as stored in table-data.json (lists per metric, null where not computed or the solve failed). */
+export interface BistableTableFile {
+  format: string
+  formatVersion: number
   solverVersion: number
   modelVersion: number
   axes: TableAxes
-  /** One flat array per metric, index = (iq·|eta| + ie)·|w| + iw; NaN where not computed or the solve failed. */
-  values: Record<TableMetric, number[]>
+  /** One list per metric, index = (iq·|eta| + ie)·|w| + iw. */
+  values: Record<TableMetric, Array<number | null>>
   validation: TableValidation
 }
 

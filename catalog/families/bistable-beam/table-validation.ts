@@ -7,7 +7,8 @@ import { reportedMetrics, snapMetrics } from './curve-metrics'
 import { solveBistableCurve } from './fe-model'
 import { params, rules } from './params'
 import { estimateFromTable } from './table'
-import { ERROR_NORMS, type BistableTable, type ErrorQuantiles, type TableValidation } from './table-build'
+import { ERROR_NORMS, type ErrorQuantiles, type TableValidation } from './table-build'
+import type { BistableTable } from './table-store'
 
 export type BistableCase = { span: number; apexHeight: number; thickness: number; depth: number; postLength: number }
 

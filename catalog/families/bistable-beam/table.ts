@@ -7,9 +7,9 @@
  * η; trilinear where a cubic's outer node was not computed. No allocation per call, so search
  * can scan millions of candidates.
  */
-import { TABLE } from './table-data'
 import type { MetricValue } from '../../schema/types'
-import { TABLE_METRICS, type BistableTable } from './table-build'
+import { TABLE_METRICS } from './table-build'
+import { bistableTable, type BistableTable } from './table-store'
 
 const METRICS = TABLE_METRICS.length
 
@@ -18,28 +18,6 @@ export function tableCoordinates(span: number, apexHeight: number, thickness: nu
   const slenderness = span / thickness
   return { q: apexHeight / thickness, eta: apexHeight / span, w: (postLength / span) * Math.cbrt(slenderness * slenderness) }
 }
-
-/** A table laid out for lookup: ln η axis, values node-major (all metrics of a node together). */
-interface Prepared {
-  source: BistableTable
-  q: Float64Array
-  logEta: Float64Array
-  w: Float64Array
-  values: Float64Array
-}
-
-function prepare(table: BistableTable): Prepared {
-  const nodes = table.values.peak.length
-  const values = new Float64Array(nodes * METRICS)
-  for (let m = 0; m < METRICS; m++) {
-    const col = table.values[TABLE_METRICS[m]]
-    for (let i = 0; i < nodes; i++) values[i * METRICS + m] = col[i]
-  }
-  return { source: table, q: Float64Array.from(table.axes.q), logEta: Float64Array.from(table.axes.eta, Math.log), w: Float64Array.from(table.axes.w), values }
-}
-
-// prepared on first use, so that loading this module never depends on the data's contents
-let prepared: Prepared | null = null
 
 const cell = new Int32Array(3)
 const frac = new Float64Array(3)
@@ -86,9 +64,8 @@ const acc = new Float64Array(METRICS)
  * Fills `out` (one slot per TABLE_METRICS entry) with interpolated normalised metrics;
  * returns false outside the table or where a surrounding node was not computed or failed.
  */
-export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = TABLE): boolean {
-  if (!prepared || prepared.source !== table) prepared = prepare(table)
-  const t = prepared
+export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = bistableTable()): boolean {
+  const t = table
   if (!(eta > 0) || !locate(t.q, q, 0) || !locate(t.logEta, Math.log(eta), 1) || !locate(t.w, w, 2)) return false
   const nq = t.q.length, ne = t.logEta.length, nw = t.w.length
   const iq = cell[0], ie = cell[1], iw = cell[2], fw = frac[2]

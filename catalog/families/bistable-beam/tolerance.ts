@@ -1,11 +1,11 @@
 /**
  * The bistable switch's tolerance rules. Its fast estimate is interpolated from the precomputed
  * table, so search and the configure check allow it to lie from the exact solver by the table's
- * measured interpolation error: BISTABLE_TABLE_TOLERANCE, a fraction of each metric's norm
+ * measured interpolation error: bistableTableTolerance(), a fraction of each metric's norm
  * (ERROR_NORMS), times that norm taken from the exact answer, in the metric's own units.
  */
 import type { MetricValue } from '../../schema/types'
-import { BISTABLE_TABLE_TOLERANCE } from './estimate'
+import { bistableTableTolerance } from './estimate'
 import { ERROR_NORMS } from './table-build'
 
 export function estimateAllowance(exact: Readonly<Record<string, MetricValue>>, params: Readonly<Record<string, number | string>>): Record<string, number> {
@@ -18,7 +18,7 @@ export function estimateAllowance(exact: Readonly<Record<string, MetricValue>>, 
   const allowance: Record<string, number> = {}
   for (const [metric, normKey] of Object.entries(ERROR_NORMS)) {
     const norm = norms[normKey]
-    if (norm !== null) allowance[metric] = BISTABLE_TABLE_TOLERANCE[metric as keyof typeof BISTABLE_TABLE_TOLERANCE] * norm
+    if (norm !== null) allowance[metric] = bistableTableTolerance()[metric as keyof ReturnType<typeof bistableTableTolerance>] * norm
   }
   return allowance
 }

@@ -1,11 +1,13 @@
 import { describe, expect, it } from 'vitest'
 import { evaluate } from '../../../catalog'
 import { estimateBistable } from '../../../catalog/families/bistable-beam'
-import { BISTABLE_FLAG_BAND, BISTABLE_TABLE_ERROR, BISTABLE_TABLE_TOLERANCE } from '../../../catalog/families/bistable-beam/estimate'
+import { bistableFlagBand, bistableTableError, bistableTableTolerance } from '../../../catalog/families/bistable-beam/estimate'
 import { BISTABLE_MODEL_VERSION } from '../../../catalog/families/bistable-beam/fe-model'
 import { caseErrors, validationCases } from '../../../catalog/families/bistable-beam/table-validation'
 import { nodeMetrics, TABLE_METRICS } from '../../../catalog/families/bistable-beam/table-build'
-import { TABLE } from '../../../catalog/families/bistable-beam/table-data'
+import { bistableTable } from '../../../catalog/families/bistable-beam/table-store'
+
+const TABLE = bistableTable()
 import { SOLVER_VERSION } from '../../../catalog/solvers'
 
 function quantile(values: number[], q: number): number {
@@ -33,13 +35,13 @@ describe('bistable-beam performance table', () => {
   })
 
   it('re-solved nodes reproduce the stored values (a solver change without regenerating fails here)', () => {
-    const { q, eta, w } = TABLE.axes
+    const { q, eta, w } = TABLE
     for (const [iq, ie, iw] of [[3, 2, 0], [10, 5, 3], [20, 8, 8], [5, 7, 12], [12, 10, 24]]) {
       const observed = nodeMetrics(q[iq], eta[ie], w[iw])
       const index = (iq * eta.length + ie) * w.length + iw
-      expect(Number.isFinite(TABLE.values.peak[index]), `node ${index} was solved`).toBe(true)
-      for (const key of TABLE_METRICS) {
-        const expected = TABLE.values[key][index]
+      expect(Number.isFinite(TABLE.values[index * TABLE_METRICS.length]), `node ${index} was solved`).toBe(true)
+      for (const [m, key] of TABLE_METRICS.entries()) {
+        const expected = TABLE.values[index * TABLE_METRICS.length + m]
         expect(Math.abs(observed[key] - expected), `${key} at node ${index}`).toBeLessThanOrEqual(1e-5 * Math.max(1, Math.abs(expected)))
       }
     }
@@ -78,7 +80,7 @@ describe('bistable-beam performance table', () => {
   })
 
   it('the reported tolerance holds on a fresh seeded sample of direct solves inside the family\'s ranges', () => {
-    // the generator measured BISTABLE_TABLE_ERROR on its own held-out sample (another seed);
+    // the generator measured bistableTableError() on its own held-out sample (another seed);
     // a fresh sample must agree with it: about a tenth of cases above the 90th percentile (at
     // most a fifth, binomial slack for ~50 bistable cases), a few above the 99th, none above
     // 1.5 × the reported largest error
@@ -87,16 +89,16 @@ describe('bistable-beam performance table', () => {
     expect(failed).toBe(0)
     const bistable = rows.filter((r) => r.bistable)
     expect(bistable.length).toBeGreaterThanOrEqual(35)
-    for (const [key, reported] of Object.entries(BISTABLE_TABLE_ERROR)) {
+    for (const [key, reported] of Object.entries(bistableTableError())) {
       const observed = bistable.map((r) => r.errors[key]).filter((v) => v !== undefined)
       expect(observed.length, key).toBeGreaterThanOrEqual(30)
       expect(observed.filter((v) => v > reported.p90).length / observed.length, `${key} above the reported p90`).toBeLessThanOrEqual(0.2)
       expect(observed.filter((v) => v > reported.p99).length, `${key} above the reported p99`).toBeLessThanOrEqual(Math.ceil(0.05 * observed.length))
       expect(Math.max(...observed), `${key} largest error`).toBeLessThanOrEqual(1.5 * reported.max)
-      expect(BISTABLE_TABLE_TOLERANCE[key as keyof typeof BISTABLE_TABLE_TOLERANCE]).toBe(reported.max)
+      expect(bistableTableTolerance()[key as keyof ReturnType<typeof bistableTableTolerance>]).toBe(reported.max)
     }
     // the bistable flag: wrong only inside the reported band around the limit
-    for (const r of rows.filter((x) => x.flip)) expect(r.valleyRatio, 'flag flip outside the reported band').toBeLessThanOrEqual(Math.max(BISTABLE_FLAG_BAND, BISTABLE_TABLE_TOLERANCE.valleyForce))
+    for (const r of rows.filter((x) => x.flip)) expect(r.valleyRatio, 'flag flip outside the reported band').toBeLessThanOrEqual(Math.max(bistableFlagBand(), bistableTableTolerance().valleyForce))
   })
 
   it('covers the valid parameter sets: at most 0.5 % fall outside, all of them deep arches (apex above 10 % of the span) beside a node the solver could not follow', () => {
