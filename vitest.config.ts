@@ -13,7 +13,7 @@ export default defineConfig({
   test: {
     projects: [
       { extends: true, test: { name: 'catalog', environment: 'node', include: ['tests/catalog/**/*.test.ts', 'catalog/**/*.test.ts'], testTimeout: 60_000 } },
-      { extends: true, test: { name: 'api', environment: 'node', include: ['tests/api/**/*.test.ts'], testTimeout: 60_000 } },
+      { extends: true, test: { name: 'api', environment: 'node', include: ['tests/api/**/*.test.ts'], setupFiles: ['tests/api/setup-database.ts'], testTimeout: 60_000 } },
       { extends: true, test: { name: 'web', environment: 'happy-dom', include: ['tests/web/**/*.test.ts', 'web/src/**/__tests__/*.test.ts'] } },
       // real Chromium against the built app: one file at a time, generous timeouts
       { extends: true, test: { name: 'e2e', environment: 'node', include: ['tests/e2e/**/*.test.ts'], testTimeout: 120_000, hookTimeout: 120_000, fileParallelism: false } },

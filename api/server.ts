@@ -12,7 +12,7 @@ import { configureComputePool } from './services/compute-pool'
 async function main(): Promise<void> {
   const config = loadConfig()
   mkdirSync(config.uploadsDir, { recursive: true })
-  const db = await openDatabase(config.databaseFile)
+  const db = await openDatabase(config.databaseUrl ?? config.databaseFile)
   const context = { config, db }
 
   if (config.seedDemo) {

@@ -1,5 +1,6 @@
 /**
- * The SQLite connection through Sequelize.
+ * The database connection through Sequelize: the embedded SQLite file by default, or
+ * PostgreSQL when FLEXSHELF_DATABASE_URL is a postgres:// URL (several instances share it).
  *
  * Sequelize's SQLite dialect opens a separate sqlite3 connection for every transaction
  * and never runs the afterConnect hook, so a PRAGMA sent with sequelize.query reaches
@@ -50,7 +51,35 @@ function prepareEveryConnection(sequelize: Sequelize): void {
   }
 }
 
-export function openSequelize(databaseFile: string): Sequelize {
+/** True for a postgres:// (or postgresql://) URL; anything else names an SQLite file. */
+export function isPostgresUrl(target: string): boolean {
+  return /^postgres(ql)?:\/\//i.test(target)
+}
+
+export interface PostgresOptions {
+  /** Connections per process (each API instance and each worker holds its own pool). */
+  poolMax?: number
+  /** Runs before every new connection (test:pg creates the throwaway database here). */
+  beforeConnect?: () => Promise<void>
+}
+
+function openPostgres(url: string, options: PostgresOptions): Sequelize {
+  const sequelize = new Sequelize(url, {
+    dialect: 'postgres',
+    logging: false,
+    define: { freezeTableName: false },
+    pool: { max: options.poolMax ?? 10, min: 0, idle: 10_000, acquire: 30_000 },
+    // timestamps are stored with their zone; the server answers in UTC like the SQLite build
+    timezone: '+00:00',
+  })
+  if (options.beforeConnect) sequelize.addHook('beforeConnect', options.beforeConnect)
+  return sequelize
+}
+
+/** Opens a database: an SQLite file path, or a postgres:// URL. */
+export function openSequelize(target: string, options: PostgresOptions = {}): Sequelize {
+  if (isPostgresUrl(target)) return openPostgres(target, options)
+  const databaseFile = target
   mkdirSync(dirname(databaseFile), { recursive: true })
   const sequelize = new Sequelize({
     dialect: 'sqlite',

@@ -23,8 +23,38 @@ export function createMigrator(sequelize: Sequelize) {
   })
 }
 
-/** Applies every pending migration; returns the names applied. */
+/** Any fixed number: the advisory lock that instances starting together on one PostgreSQL database take turns on. */
+const MIGRATION_LOCK_KEY = 0x466c7873 // "Flxs"
+
+/**
+ * Applies every pending migration; returns the names applied. On PostgreSQL a session-level
+ * advisory lock, held on one connection for the whole run, makes a second instance starting
+ * at the same moment wait and then find nothing left to apply.
+ */
 export async function migrate(sequelize: Sequelize): Promise<string[]> {
-  const applied = await createMigrator(sequelize).up()
-  return applied.map((m) => m.name)
+  if (sequelize.getDialect() !== 'postgres') return (await createMigrator(sequelize).up()).map((m) => m.name)
+  return withAdvisoryLock(sequelize, MIGRATION_LOCK_KEY, async () => (await createMigrator(sequelize).up()).map((m) => m.name))
+}
+
+/**
+ * Runs `work` while this process holds a PostgreSQL advisory lock (pg_advisory_lock waits
+ * for another holder). The lock lives on one pooled connection taken for the whole run;
+ * `work` itself uses the pool as usual.
+ */
+export async function withAdvisoryLock<T>(sequelize: Sequelize, key: number, work: () => Promise<T>): Promise<T> {
+  const manager = sequelize.connectionManager as unknown as {
+    getConnection(options?: unknown): Promise<{ query(sql: string): Promise<unknown> }>
+    releaseConnection(connection: unknown): Promise<void>
+  }
+  const connection = await manager.getConnection({ type: 'write' })
+  try {
+    await connection.query(`SELECT pg_advisory_lock(${Number(key)})`)
+    try {
+      return await work()
+    } finally {
+      await connection.query(`SELECT pg_advisory_unlock(${Number(key)})`)
+    }
+  } finally {
+    await manager.releaseConnection(connection)
+  }
 }

@@ -6,6 +6,7 @@
 import type { Transaction } from 'sequelize'
 import { builtinMaterials, evaluate, families, type ParamRanges } from '../../catalog'
 import type { AppContext } from '../context'
+import { withAdvisoryLock } from './migrate'
 import { hashPassword } from '../services/auth'
 import { DEMO_PASSWORD, DEMO_SHELF, DEMO_USERS, type DemoEntry } from './demo-shelf'
 
@@ -74,7 +75,20 @@ export interface SeedOptions {
   registeredFamilies?: readonly string[]
 }
 
+/** The advisory lock two instances seeding one PostgreSQL database at the same moment take turns on. */
+const SEED_LOCK_KEY = 0x466c7364 // "Flsd"
+
+/**
+ * Seeds once however many instances start together: on PostgreSQL the whole seed holds an
+ * advisory lock, so a second instance waits, then finds every record present and adds none.
+ */
 export async function seedDemoData(context: AppContext, options: SeedOptions = {}): Promise<SeedReport> {
+  const { sequelize } = context.db
+  if (sequelize.getDialect() === 'postgres') return withAdvisoryLock(sequelize, SEED_LOCK_KEY, () => seedUnlocked(context, options))
+  return seedUnlocked(context, options)
+}
+
+async function seedUnlocked(context: AppContext, options: SeedOptions): Promise<SeedReport> {
   const registered = options.registeredFamilies ?? families.map((f) => f.id)
   const { User, Material } = context.db.models
   const report: SeedReport = { usersCreated: 0, materialsCreated: 0, entriesCreated: 0, skipped: [], familiesPending: [] }

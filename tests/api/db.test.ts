@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { openDatabase, ImmutableRevisionError, type Database } from '../../api/db'
 import { openSequelize } from '../../api/db/connection'
 import { migrate } from '../../api/db/migrate'
-import { makeTempDir } from './helpers'
+import { makeTempDir, onPostgres } from './helpers'
 
 let dataDir: string
 let db: Database
@@ -52,24 +52,22 @@ describe('migrations', () => {
     })
 
     it('produces exactly the expected tables and columns', async () => {
-      const tables = await sequelize.query<{ name: string }>("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' ORDER BY name", { type: QueryTypes.SELECT })
-      expect(tables.map((t) => t.name).sort()).toEqual(Object.keys(EXPECTED_TABLES).sort())
+      const queryInterface = sequelize.getQueryInterface()
+      const tables = (await queryInterface.showAllTables()).map((t) => (typeof t === 'string' ? t : (t as { tableName: string }).tableName))
+      expect(tables.sort()).toEqual(Object.keys(EXPECTED_TABLES).sort())
       for (const [table, columns] of Object.entries(EXPECTED_TABLES)) {
-        const observed = await sequelize.query<{ name: string }>(`PRAGMA table_info("${table}")`, { type: QueryTypes.SELECT })
-        expect(observed.map((c) => c.name).sort(), table).toEqual([...columns].sort())
+        const observed = Object.keys(await queryInterface.describeTable(table))
+        expect(observed.sort(), table).toEqual([...columns].sort())
       }
     })
 
     it('makes e-mails unique and points entries at their owners', async () => {
-      const indexes = await sequelize.query<{ name: string; unique: number }>('PRAGMA index_list("Users")', { type: QueryTypes.SELECT })
-      const uniqueColumns: string[] = []
-      for (const index of indexes.filter((i) => i.unique)) {
-        const cols = await sequelize.query<{ name: string }>(`PRAGMA index_info("${index.name}")`, { type: QueryTypes.SELECT })
-        uniqueColumns.push(...cols.map((c) => c.name))
-      }
+      const queryInterface = sequelize.getQueryInterface()
+      const indexes = await queryInterface.showIndex('Users') as Array<{ unique: boolean | number; fields: Array<{ attribute: string }> }>
+      const uniqueColumns = indexes.filter((i) => i.unique).flatMap((i) => i.fields.map((f) => f.attribute))
       expect(uniqueColumns).toContain('email')
-      const keys = await sequelize.query<{ table: string; from: string }>('PRAGMA foreign_key_list("Entries")', { type: QueryTypes.SELECT })
-      expect(keys.map((k) => `${k.from}->${k.table}`).sort()).toEqual(['currentRevisionId->EntryRevisions', 'ownerId->Users', 'proposalForId->Entries'])
+      const keys = await queryInterface.getForeignKeyReferencesForTable('Entries') as Array<{ columnName: string; referencedTableName: string }>
+      expect(keys.map((k) => `${k.columnName}->${k.referencedTableName}`).sort()).toEqual(['currentRevisionId->EntryRevisions', 'ownerId->Users', 'proposalForId->Entries'])
     })
 
     it('applies nothing the second time', async () => {
@@ -79,7 +77,7 @@ describe('migrations', () => {
 })
 
 describe('every SQLite connection', () => {
-  describe('outside a transaction', () => {
+  describe.skipIf(onPostgres)('outside a transaction', () => {
     it('runs in WAL mode with foreign keys on, a busy timeout and full sync', async () => {
       expect(await pragma(db.sequelize, 'journal_mode')).toBe('wal')
       expect(await pragma(db.sequelize, 'foreign_keys')).toBe(1)
@@ -90,7 +88,7 @@ describe('every SQLite connection', () => {
   })
 
   describe('inside a transaction (its own connection)', () => {
-    it('has the same settings', async () => {
+    it.skipIf(onPostgres)('has the same settings', async () => {
       const observed = await db.write(async (transaction) => ({
         foreignKeys: await pragma(db.sequelize, 'foreign_keys', transaction),
         journalMode: await pragma(db.sequelize, 'journal_mode', transaction),
@@ -106,7 +104,7 @@ describe('every SQLite connection', () => {
         await Material.create({ id: 'half-written', name: 'x', process: 'FDM', modulus: 1, strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
         await Entry.create({ familyId: 'bistable-beam', name: 'orphan', summary: '', tags: [], status: 'draft', defaultParams: {}, ranges: {}, materials: [], ownerId: 424242, currentRevisionId: null }, { transaction })
       })
-      await expect(write).rejects.toThrow(/FOREIGN KEY constraint failed/)
+      await expect(write).rejects.toThrow(onPostgres ? /violates foreign key constraint/ : /FOREIGN KEY constraint failed/)
       expect(await Material.findByPk('half-written')).toBeNull()
       expect(await Entry.count({ where: { name: 'orphan' } })).toBe(0)
     })
@@ -115,14 +113,16 @@ describe('every SQLite connection', () => {
 
 describe('the write queue', () => {
   describe('with many concurrent writers', () => {
-    it('runs them one at a time as IMMEDIATE transactions, all committed', async () => {
+    it(`runs them one at a time as ${onPostgres ? 'SERIALIZABLE' : 'IMMEDIATE'} transactions, all committed`, async () => {
       const { Material } = db.models
       let running = 0
       let most = 0
       await Promise.all(Array.from({ length: 12 }, (_, i) => db.write(async (transaction) => {
         running++
         most = Math.max(most, running)
-        expect((transaction as unknown as { options: { type: string } }).options.type).toBe(Transaction.TYPES.IMMEDIATE)
+        const options = (transaction as unknown as { options: { type: string; isolationLevel: string } }).options
+        if (onPostgres) expect(options.isolationLevel).toBe(Transaction.ISOLATION_LEVELS.SERIALIZABLE)
+        else expect(options.type).toBe(Transaction.TYPES.IMMEDIATE)
         const count = await Material.count({ transaction })
         await Material.create({ id: `queued-${i}`, name: `queued ${count}`, process: 'FDM', modulus: 1, strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
         running--

@@ -17,6 +17,9 @@ import type { Role } from '../../api/roles'
 
 export const TEST_BCRYPT_COST = 4
 
+/** True under npm run test:pg (tests/api/setup-database.ts): tests of SQLite files themselves skip there. */
+export const onPostgres = Boolean(process.env.FLEXSHELF_TEST_DATABASE_URL)
+
 export interface TestApp {
   app: Express
   context: AppContext

@@ -35,23 +35,20 @@ const NOW = '2026-03-02 09:15:00.000 +00:00'
 
 /** Rows in every table of the first release's schema (0001), written as that release would. */
 async function writeFirstReleaseRows(sequelize: Sequelize): Promise<void> {
-  const q = (sql: string, replacements: unknown[]) => sequelize.query(sql, { replacements })
-  await q('INSERT INTO Users (id, email, passwordHash, displayName, role, tokenVersion, createdAt, updatedAt) VALUES (?, ?, ?, ?, ?, ?, ?, ?)',
-    [7, 'old.release@example.test', '$2b$10$abcdefghijklmnopqrstuuO1Z0Jb2c4b6mQ8p5s7r9t1v3x5z7B9C', 'Orla Release', 'librarian', 2, NOW, NOW])
-  await q('INSERT INTO Materials (id, name, process, modulus, strainLimit, density, notes, source, createdAt, updatedAt) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-    ['petg-lot-3', 'PETG lot 3', 'FDM', 1870, 0.019, 1.27, 'bench-calibrated', 'test stand, lot 3', NOW, NOW])
-  await q('INSERT INTO Entries (id, familyId, name, summary, tags, status, defaultParams, ranges, materials, notes, ownerId, currentRevisionId, createdAt, updatedAt) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, NULL, ?, ?)',
-    [11, 'snap-hook', 'Lid latch, first release', 'kept across migrations', '["lid","latch"]', 'released', '{"length":15}', '{"length":[10,20]}', '["petg-lot-3"]', 'note', 7, NOW, NOW])
-  await q('INSERT INTO EntryRevisions (id, entryId, number, params, ranges, method, curve, metrics, warnings, createdById, createdAt) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-    [21, 11, 1, '{"length":15}', '{"length":[10,20]}', 'snap-fit-equations', '{"displacement":[0,1],"force":[0,2]}', '{"matingForce":2}', '[]', 7, NOW])
-  await q('UPDATE Entries SET currentRevisionId = 21 WHERE id = 11', [])
-  await q('INSERT INTO TestReports (id, entryId, revisionId, uploaderId, reviewerId, filePath, originalName, photoPath, printer, material, lot, orientation, testSpeed, notes, status, measuredCurve, createdAt, updatedAt) VALUES (?, ?, ?, ?, NULL, ?, ?, NULL, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
-    [31, 11, 21, 7, 'reports/abc.csv', 'run 1.csv', 'Bench printer 1', 'PETG', 'L-3', 'flat', 10, '', 'submitted', '{"displacement":[0,1],"force":[0,1.8]}', NOW, NOW])
-  await q('INSERT INTO SavedConfigurations (id, ownerId, entryId, revisionId, name, params, window, shareToken, createdAt, updatedAt) VALUES (?, ?, ?, ?, ?, ?, NULL, ?, ?, ?)',
-    [41, 7, 11, 21, 'Kept configuration', '{"length":14}', 'tok-first-release', NOW, NOW])
-  await q('INSERT INTO AuditEvents (id, actorId, action, subjectType, subjectId, details, at) VALUES (?, ?, ?, ?, ?, ?, ?)',
-    [51, 7, 'user.signup', 'user', '7', '{"email":"old.release@example.test"}', NOW])
-  await q('INSERT INTO RevokedTokens (jti, expiresAt) VALUES (?, ?)', ['jti-first-release', NOW])
+  // quoted names: PostgreSQL folds unquoted ones to lower case (SQLite takes either)
+  const insert = (table: string, row: Record<string, unknown>) => sequelize.query(
+    `INSERT INTO "${table}" (${Object.keys(row).map((c) => `"${c}"`).join(', ')}) VALUES (${Object.keys(row).map(() => '?').join(', ')})`,
+    { replacements: Object.values(row) },
+  )
+  await insert('Users', { id: 7, email: 'old.release@example.test', passwordHash: '$2b$10$abcdefghijklmnopqrstuuO1Z0Jb2c4b6mQ8p5s7r9t1v3x5z7B9C', displayName: 'Orla Release', role: 'librarian', tokenVersion: 2, createdAt: NOW, updatedAt: NOW })
+  await insert('Materials', { id: 'petg-lot-3', name: 'PETG lot 3', process: 'FDM', modulus: 1870, strainLimit: 0.019, density: 1.27, notes: 'bench-calibrated', source: 'test stand, lot 3', createdAt: NOW, updatedAt: NOW })
+  await insert('Entries', { id: 11, familyId: 'snap-hook', name: 'Lid latch, first release', summary: 'kept across migrations', tags: '["lid","latch"]', status: 'released', defaultParams: '{"length":15}', ranges: '{"length":[10,20]}', materials: '["petg-lot-3"]', notes: 'note', ownerId: 7, currentRevisionId: null, createdAt: NOW, updatedAt: NOW })
+  await insert('EntryRevisions', { id: 21, entryId: 11, number: 1, params: '{"length":15}', ranges: '{"length":[10,20]}', method: 'snap-fit-equations', curve: '{"displacement":[0,1],"force":[0,2]}', metrics: '{"matingForce":2}', warnings: '[]', createdById: 7, createdAt: NOW })
+  await sequelize.query('UPDATE "Entries" SET "currentRevisionId" = 21 WHERE "id" = 11')
+  await insert('TestReports', { id: 31, entryId: 11, revisionId: 21, uploaderId: 7, reviewerId: null, filePath: 'reports/abc.csv', originalName: 'run 1.csv', photoPath: null, printer: 'Bench printer 1', material: 'PETG', lot: 'L-3', orientation: 'flat', testSpeed: 10, notes: '', status: 'submitted', measuredCurve: '{"displacement":[0,1],"force":[0,1.8]}', createdAt: NOW, updatedAt: NOW })
+  await insert('SavedConfigurations', { id: 41, ownerId: 7, entryId: 11, revisionId: 21, name: 'Kept configuration', params: '{"length":14}', window: null, shareToken: 'tok-first-release', createdAt: NOW, updatedAt: NOW })
+  await insert('AuditEvents', { id: 51, actorId: 7, action: 'user.signup', subjectType: 'user', subjectId: '7', details: '{"email":"old.release@example.test"}', at: NOW })
+  await insert('RevokedTokens', { jti: 'jti-first-release', expiresAt: NOW })
 }
 
 const FIRST_RELEASE_TABLES = ['Users', 'Materials', 'Entries', 'EntryRevisions', 'TestReports', 'SavedConfigurations', 'AuditEvents', 'RevokedTokens']
@@ -68,8 +65,7 @@ async function snapshot(sequelize: Sequelize, columns: Record<string, string[]>)
 async function columnsOf(sequelize: Sequelize): Promise<Record<string, string[]>> {
   const out: Record<string, string[]> = {}
   for (const table of FIRST_RELEASE_TABLES) {
-    const rows = await sequelize.query<{ name: string }>(`PRAGMA table_info("${table}")`, { type: QueryTypes.SELECT })
-    out[table] = rows.map((r) => r.name)
+    out[table] = Object.keys(await sequelize.getQueryInterface().describeTable(table))
   }
   return out
 }
@@ -109,10 +105,13 @@ describe('migrating to the latest schema', () => {
         expect(applied).toEqual(all.slice(all.indexOf(last) + 1))
         const observed = await snapshot(sequelize, firstColumns)
         expect(observed).toEqual(before)
-        const [{ integrity_check }] = await sequelize.query<{ integrity_check: string }>('PRAGMA integrity_check', { type: QueryTypes.SELECT })
-        expect(integrity_check).toBe('ok')
-        const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*) AS n FROM pragma_foreign_key_check', { type: QueryTypes.SELECT })
-        expect(n).toBe(0)
+        // SQLite checks its file and the references on request; PostgreSQL enforces references on every write
+        if (sequelize.getDialect() === 'sqlite') {
+          const [{ integrity_check }] = await sequelize.query<{ integrity_check: string }>('PRAGMA integrity_check', { type: QueryTypes.SELECT })
+          expect(integrity_check).toBe('ok')
+          const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*) AS n FROM pragma_foreign_key_check', { type: QueryTypes.SELECT })
+          expect(n).toBe(0)
+        }
 
         // the current models read the old rows (new columns have their defaults)
         const models = defineModels(sequelize)

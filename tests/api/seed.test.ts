@@ -7,7 +7,7 @@ import type { AppContext } from '../../api/context'
 import { openDatabase } from '../../api/db'
 import { DEMO_PASSWORD, DEMO_SHELF, DEMO_USERS } from '../../api/db/demo-shelf'
 import { seedDemoData, type SeedReport } from '../../api/db/seed'
-import { makeTempDir, testConfig } from './helpers'
+import { makeTempDir, onPostgres, testConfig } from './helpers'
 
 const SHELF_FAMILIES = ['bistable-beam', 'leaf-hinge', 'notch-hinge', 'parallel-guide', 'serpentine-spring', 'snap-hook']
 const registeredOnShelf = () => Object.keys(DEMO_SHELF).filter((id) => families.some((f) => f.id === id))
@@ -190,5 +190,36 @@ describe('seedDemoData', () => {
       expect(last.entriesCreated).toBe(0)
       expect(await later.db.models.Entry.count()).toBe(count)
     })
+  })
+})
+
+// Two instances starting together share one PostgreSQL database (SQLite has one server
+// process per file, so this is PostgreSQL's case): both migrate and seed at the same moment.
+describe.runIf(onPostgres)('two instances starting at the same moment on one database', () => {
+  let dir: string
+  const opened: AppContext[] = []
+  afterAll(async () => {
+    for (const c of opened) await c.db.close()
+    rmSync(dir, { recursive: true, force: true })
+  })
+
+  it('migrate once and seed once: every demo record exists exactly once', async () => {
+    dir = makeTempDir()
+    const config = testConfig(dir)
+    const start = async () => {
+      const c: AppContext = { config, db: await openDatabase(config.databaseFile) }
+      opened.push(c)
+      return { c, report: await seedDemoData(c) }
+    }
+    const [a, b] = await Promise.all([start(), start()])
+    expect(a.report.usersCreated + b.report.usersCreated).toBe(DEMO_USERS.length)
+    expect(a.report.materialsCreated + b.report.materialsCreated).toBe(builtinMaterials.length)
+    const { User, Material, Entry, EntryRevision } = a.c.db.models
+    expect(await User.count()).toBe(DEMO_USERS.length)
+    expect(await Material.count()).toBe(builtinMaterials.length)
+    const expectedEntries = registeredOnShelf().reduce((n, id) => n + DEMO_SHELF[id].length, 0)
+    expect(a.report.entriesCreated + b.report.entriesCreated).toBe(expectedEntries)
+    expect(await Entry.count()).toBe(expectedEntries)
+    expect(await EntryRevision.count()).toBe(expectedEntries)
   })
 })

@@ -21,6 +21,13 @@ const userRef = (allowNull: boolean, onDelete: 'RESTRICT' | 'SET NULL') => ({
 })
 
 export async function up({ context: queryInterface }: Context): Promise<void> {
+  // PostgreSQL checks that a referenced table exists when the reference is declared
+  const postgres = queryInterface.sequelize.getDialect() === 'postgres'
+  const currentRevisionReference = {
+    references: { model: 'EntryRevisions', key: 'id' },
+    onUpdate: 'CASCADE',
+    onDelete: 'SET NULL',
+  }
   await queryInterface.sequelize.transaction(async (transaction) => {
     await queryInterface.createTable('Users', {
       id,
@@ -45,7 +52,8 @@ export async function up({ context: queryInterface }: Context): Promise<void> {
     }, { transaction })
 
     // Entries and EntryRevisions point at each other; SQLite checks a reference when a row
-    // is written, so the table named by currentRevisionId may be created second.
+    // is written, so the table named by currentRevisionId may be created second. PostgreSQL
+    // gets the same constraint added once EntryRevisions exists (below).
     await queryInterface.createTable('Entries', {
       id,
       familyId: { type: DataTypes.STRING(64), allowNull: false },
@@ -61,9 +69,7 @@ export async function up({ context: queryInterface }: Context): Promise<void> {
       currentRevisionId: {
         type: DataTypes.INTEGER,
         allowNull: true,
-        references: { model: 'EntryRevisions', key: 'id' },
-        onUpdate: 'CASCADE',
-        onDelete: 'SET NULL',
+        ...(postgres ? {} : currentRevisionReference),
       },
       ...timestamps,
     }, { transaction })
@@ -84,6 +90,17 @@ export async function up({ context: queryInterface }: Context): Promise<void> {
       createdAt: { type: DataTypes.DATE, allowNull: false },
     }, { transaction })
     await queryInterface.addIndex('EntryRevisions', ['entryId', 'number'], { unique: true, transaction })
+    if (postgres) {
+      await queryInterface.addConstraint('Entries', {
+        type: 'foreign key',
+        name: 'Entries_currentRevisionId_fkey',
+        fields: ['currentRevisionId'],
+        references: { table: 'EntryRevisions', field: 'id' },
+        onUpdate: 'CASCADE',
+        onDelete: 'SET NULL',
+        transaction,
+      })
+    }
 
     await queryInterface.createTable('TestReports', {
       id,
@@ -139,6 +156,7 @@ export async function up({ context: queryInterface }: Context): Promise<void> {
 
 export async function down({ context: queryInterface }: Context): Promise<void> {
   await queryInterface.sequelize.transaction(async (transaction) => {
+    if (queryInterface.sequelize.getDialect() === 'postgres') await queryInterface.removeConstraint('Entries', 'Entries_currentRevisionId_fkey', { transaction })
     for (const table of ['RevokedTokens', 'AuditEvents', 'SavedConfigurations', 'TestReports', 'EntryRevisions', 'Entries', 'Materials', 'Users']) {
       await queryInterface.dropTable(table, { transaction })
     }
