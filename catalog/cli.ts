@@ -2,17 +2,19 @@
  * Flexshelf command line: the only part of catalog/ that touches the outside world.
  *   flexshelf evaluate <familyId> '<params JSON>' [--method <id>]
  *   flexshelf stl <familyId> '<params JSON>' -o part.stl
+ *   flexshelf 3mf|dxf|svg <familyId> '<params JSON>' -o part.3mf [--name "<object name>"]
  *   flexshelf families
  *   flexshelf search '<force window JSON>' [--shelf shelf.json]
  * JSON goes to stdout; bad input prints one line per problem on stderr and exits 1.
  */
 import { readFileSync, writeFileSync } from 'node:fs'
-import { buildGeometry, evaluate, families, serializeStl, SolverError, UnknownFamilyError, ValidationError } from './index'
+import { buildGeometry, buildPartFile, evaluate, families, getFamily, PART_FORMATS, serializeStl, type PartFormat, SolverError, UnknownFamilyError, ValidationError } from './index'
 import { DEMO_SHELF, searchShelfSync, type Shelf } from './search'
 
 const USAGE = `usage:
   flexshelf evaluate <familyId> '<params as JSON>' [--method <method>]
   flexshelf stl <familyId> '<params as JSON>' -o <file.stl>
+  flexshelf 3mf|dxf|svg <familyId> '<params as JSON>' -o <file> [--name "<object name>"]
   flexshelf families
   flexshelf search '<force window as JSON>' [--shelf <shelf.json>]
 families: ${families.map((f) => f.id).join(', ')}`
@@ -51,6 +53,10 @@ function readShelf(file: string): Shelf {
   entries.forEach((e, i) => {
     const ok = e && typeof e === 'object' && typeof e.familyId === 'string' && typeof e.name === 'string' && e.ranges && typeof e.ranges === 'object' && Array.isArray(e.materials)
     if (!ok) throw new UsageError(`shelf file ${file}: entry ${i} needs familyId, name, ranges and materials`)
+    for (const [key, range] of Object.entries(e.ranges as Record<string, unknown>)) {
+      const pair = Array.isArray(range) && range.length === 2 && range.every((v) => typeof v === 'number' && Number.isFinite(v)) && range[0] <= range[1]
+      if (!pair) throw new UsageError(`shelf file ${file}: entry ${i} ("${e.name}") ranges.${key} must be a [min, max] pair of numbers with min ≤ max, got ${JSON.stringify(range)}`)
+    }
   })
   return entries.map((e, i) => ({ id: i + 1, summary: '', tags: [], defaultParams: {}, status: 'released', ...e })) as Shelf
 }
@@ -75,6 +81,18 @@ export async function main(argv: string[], out = process.stdout, err = process.s
       const bytes = serializeStl(buildGeometry(familyId, parseJson(json, 'params')))
       writeFileSync(file, bytes)
       err.write(`wrote ${file} (${bytes.byteLength} bytes, ${(bytes.byteLength - 84) / 50} triangles)\n`)
+      return 0
+    }
+    if (command && command in PART_FORMATS) {
+      const format = command as PartFormat
+      const file = takeOption(args, ['-o', '--output'])
+      const name = takeOption(args, ['--name', '-n'])
+      const [familyId, json] = args
+      if (!familyId) throw new UsageError(`${format} needs a family id`)
+      if (!file) throw new UsageError(`${format} needs an output file: -o part.${PART_FORMATS[format].extension}`)
+      const data = buildPartFile(format, familyId, parseJson(json, 'params'), { name: name ?? getFamily(familyId).name })
+      writeFileSync(file, data)
+      err.write(`wrote ${file} (${typeof data === 'string' ? Buffer.byteLength(data) : data.byteLength} bytes)\n`)
       return 0
     }
     if (command === 'search') {

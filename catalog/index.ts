@@ -12,6 +12,8 @@ export type { Material } from './materials'
 export { nearlyEqual, roundTo } from './numeric'
 
 export { serializeStl } from './geometry/stl'
+export { buildPartFile, serialize3mf, serializeDxf, serializeProfileSvg, profileOf, indexedMesh, PART_FORMATS } from './files'
+export type { PartFormat, PartMetadata, Profile, IndexedMesh } from './files'
 
 // Search and the configure screen's checks (force window, tolerance band, printability).
 export { searchShelf, searchShelfSync, SearchCancelledError, createShelfIndex, DEMO_SHELF, windowCacheKey } from './search'

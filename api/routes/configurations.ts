@@ -11,7 +11,8 @@ import {
   createConfiguration, deleteConfiguration, listOwn, openOwn, openShared, parseConfigurationId, resolveSaved, shareConfiguration,
   unshareConfiguration, type OpenedConfiguration,
 } from '../services/configurations'
-import { curveCsvFile, stlFile } from '../services/downloads'
+import { curveCsvFile, partFile, stlFile } from '../services/downloads'
+import { PART_FORMATS, type PartFormat } from '../../catalog'
 import { sendDatasheet, sendDatasheetPdf, sendFile } from './send-files'
 
 declare global {
@@ -37,7 +38,7 @@ function opened(req: Request): OpenedConfiguration {
   return req.configuration!
 }
 
-/** The check and the four downloads, the same for an owner's and a shared configuration. */
+/** The check and the downloads (STL, 3MF, DXF, SVG, curve CSV, data sheet), the same for an owner's and a shared configuration. */
 function addReadRoutes(router: Router, param: string) {
   const input = (req: Request) => {
     const { target } = opened(req)
@@ -51,6 +52,12 @@ function addReadRoutes(router: Router, param: string) {
     const { target, input: resolved } = input(req)
     sendFile(res, await stlFile(target, resolved))
   })
+  for (const format of Object.keys(PART_FORMATS) as PartFormat[]) {
+    router.get(`/:${param}/${format}`, allow('engineer'), async function part(req: Request, res: Response) {
+      const { target, input: resolved } = input(req)
+      sendFile(res, await partFile(format, target, resolved))
+    })
+  }
   router.get(`/:${param}/curve.csv`, allow('engineer'), async function curveCsv(req: Request, res: Response) {
     const { target, input: resolved } = input(req)
     sendFile(res, await curveCsvFile(target, resolved))

@@ -1,6 +1,6 @@
 /**
  * Configuring a shelf entry: the check the configure screen runs as parameters change, and
- * the files taken away (STL, curve CSV, data sheet as PDF and as JSON for the printable page).
+ * the files taken away (STL, 3MF, DXF and SVG of the profile, curve CSV, data sheet as PDF and as JSON for the printable page).
  * Downloads take the configuration in the query; see docs/api.md.
  */
 import { Router, type Request, type Response } from 'express'
@@ -9,7 +9,8 @@ import { currentAuth } from '../middleware/authenticate'
 import { allow } from '../middleware/require-role'
 import { configurationBody, parseConfigurationQuery, type ConfigurationInput, type RawConfiguration } from '../services/configuration-input'
 import { checkTarget, configureTarget, loadEntry, resolveFor, type ConfigureTarget } from '../services/configure'
-import { curveCsvFile, stlFile } from '../services/downloads'
+import { curveCsvFile, partFile, stlFile } from '../services/downloads'
+import { PART_FORMATS, type PartFormat } from '../../catalog'
 import { parseEntryId } from '../services/entries'
 import { parseBody } from '../validation'
 import { sendDatasheet, sendDatasheetPdf, sendFile } from './send-files'
@@ -52,6 +53,12 @@ export function configureRouter(context: AppContext): Router {
 
   router.post('/:id/check', allow('engineer'), check)
   router.get('/:id/stl', allow('engineer'), stl)
+  for (const format of Object.keys(PART_FORMATS) as PartFormat[]) {
+    router.get(`/:id/${format}`, allow('engineer'), async function part(req: Request<{ id: string }>, res: Response) {
+      const { target, input } = await fromQuery(req)
+      sendFile(res, await partFile(format, target, input))
+    })
+  }
   router.get('/:id/curve.csv', allow('engineer'), curveCsv)
   router.get('/:id/datasheet', allow('engineer'), datasheet)
   router.get('/:id/datasheet.pdf', allow('engineer'), datasheetPdf)

@@ -19,7 +19,7 @@
 import { MessageChannel, type MessagePort } from 'node:worker_threads'
 import bcrypt from 'bcryptjs'
 import { Piscina } from 'piscina'
-import type { EvaluateOptions, Evaluation } from '../../catalog'
+import type { EvaluateOptions, Evaluation, PartFormat } from '../../catalog'
 import type { ToleranceBand } from '../../catalog/tolerance'
 import type { PrinterProfile } from '../../catalog/window'
 import { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS, type ComputeAsk } from './compute/budget'
@@ -146,6 +146,9 @@ export const compute = {
     }) as Promise<CheckComputation>,
   stl: (familyId: string, params: unknown, what = `the STL of ${familyId}`) =>
     runBudgeted({ kind: 'stl', familyId, params }, { task: 'stl', what, familyId }) as Promise<Uint8Array>,
+  /** 3MF (bytes), DXF or SVG (text) of the solid buildGeometry makes. */
+  partFile: (format: PartFormat, familyId: string, params: unknown, meta: Extract<ComputeTask, { kind: 'partFile' }>['meta'], what = `the ${format.toUpperCase()} of ${familyId}`) =>
+    runBudgeted({ kind: 'partFile', format, familyId, params, meta }, { task: 'stl', what, familyId }) as Promise<Uint8Array | string>,
   hashPassword: (password: string, cost: number) => runPassword({ kind: 'hashPassword', password, cost }) as Promise<string>,
   comparePassword: (password: string, hash: string) => runPassword({ kind: 'comparePassword', password, hash }) as Promise<boolean>,
 }

@@ -3,7 +3,7 @@
  * curve as CSV. The same configuration always gives the same bytes.
  */
 import Papa from 'papaparse'
-import { validateParams } from '../../catalog'
+import { PART_FORMATS, validateParams, type PartFormat } from '../../catalog'
 import { compute } from './compute-pool'
 import type { ConfigurationInput } from './configuration-input'
 import type { ToleranceBand } from '../../catalog/tolerance'
@@ -28,6 +28,33 @@ export async function stlFile(target: ConfigureTarget, input: ConfigurationInput
     fileName: downloadFileName(target.entry.name, family, params, 'stl'),
     contentType: 'model/stl',
     body: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength),
+    notices: [...target.notices],
+  }
+}
+
+/**
+ * 3MF for slicers (mm, one object named after the entry, with entry, revision, parameters and
+ * material as metadata), DXF of the planar profile for CAD (depth in the file and its name) or
+ * SVG of the profile with its main dimensions; built on the compute pool.
+ */
+export async function partFile(format: PartFormat, target: ConfigureTarget, input: ConfigurationInput): Promise<DownloadFile> {
+  const { family, entry } = target
+  const { params, material } = validateParams(family, input.params, { ranges: target.ranges, materials: target.materials })
+  const revision = entry.currentRevision?.number
+  const body = await compute.partFile(format, family.id, params, {
+    name: entry.name,
+    entry: String(entry.id),
+    ...(revision !== undefined ? { revision } : {}),
+    material: material.id ? `${material.name} (${material.id})` : `${material.name}, modulus ${material.modulus} MPa`,
+  })
+  const { contentType, extension } = PART_FORMATS[format]
+  const depth = family.envelope(params).z
+  // a profile is only half the part without its depth: the DXF's and SVG's names carry it
+  const suffix = format === '3mf' ? undefined : `profile-extrude${Number(depth.toPrecision(6))}mm`
+  return {
+    fileName: downloadFileName(entry.name, family, params, extension, suffix),
+    contentType: format === '3mf' ? contentType : `${contentType}; charset=utf-8`,
+    body: typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength),
     notices: [...target.notices],
   }
 }

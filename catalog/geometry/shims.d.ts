@@ -6,3 +6,12 @@ declare module '@jscad/stl-serializer' {
   }
   export default serializer
 }
+
+// @jscad/dxf-serializer ships no types.
+declare module '@jscad/dxf-serializer' {
+  const serializer: {
+    serialize: (options: { geom2To?: 'lwpolyline' | 'polyline'; geom3To?: '3dface' | 'polyline' }, ...objects: unknown[]) => string[]
+    mimeType: string
+  }
+  export default serializer
+}

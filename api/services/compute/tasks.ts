@@ -5,7 +5,7 @@
  * function runs in a pool thread (worker.ts) or, without threads, in the calling one.
  */
 import bcrypt from 'bcryptjs'
-import { buildGeometry, evaluate, getFamily, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation } from '../../../catalog'
+import { buildGeometry, buildPartFile, evaluate, getFamily, serializeStl, SolverError, UnknownFamilyError, ValidationError, type EvaluateOptions, type Evaluation, type PartFormat, type PartMetadata } from '../../../catalog'
 import { checkPrintability, type PrintabilityReport } from '../../../catalog/printability'
 import { toleranceBand, type ToleranceBand } from '../../../catalog/tolerance'
 import type { PrinterProfile } from '../../../catalog/window'
@@ -17,6 +17,7 @@ export type ComputeTask =
   | { kind: 'band'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2] }
   | { kind: 'check'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2]; printer: Partial<PrinterProfile> }
   | { kind: 'stl'; familyId: string; params: unknown }
+  | { kind: 'partFile'; format: PartFormat; familyId: string; params: unknown; meta: Omit<PartMetadata, 'family' | 'params'> }
   | { kind: 'hashPassword'; password: string; cost: number }
   | { kind: 'comparePassword'; password: string; hash: string }
 
@@ -52,6 +53,8 @@ export function runTask(task: ComputeTask): ComputeValue {
     }
     case 'stl':
       return serializeStl(buildGeometry(task.familyId, task.params))
+    case 'partFile':
+      return buildPartFile(task.format, task.familyId, task.params, task.meta)
     // bcrypt is slow on purpose (a quarter second at cost 12): on a pool thread it may block
     case 'hashPassword':
       return bcrypt.hashSync(task.password, task.cost)
