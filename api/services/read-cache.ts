@@ -9,6 +9,7 @@
  * One server process owns the database (SQLite, docs/api.md), so every write passes through
  * these hooks; raw SQL writes would not, and the API has none on these tables.
  */
+import { LRUCache } from 'lru-cache'
 import type { Model, ModelStatic, Transaction } from 'sequelize'
 import type { Database } from '../db'
 
@@ -16,7 +17,7 @@ export type TableName = 'Entry' | 'EntryRevision' | 'User' | 'RevokedToken' | 'T
 
 const WRITE_HOOKS = ['afterCreate', 'afterUpdate', 'afterDestroy', 'afterSave', 'afterUpsert', 'afterRestore', 'afterBulkCreate', 'afterBulkUpdate', 'afterBulkDestroy'] as const
 
-/** Entries per cache before the oldest are dropped (a cached token per signed-in session). */
+/** Entries per cache before the least recently used are dropped (a cached token per signed-in session). */
 const MAX_ENTRIES = 5000
 
 interface Cached<T> {
@@ -26,7 +27,7 @@ interface Cached<T> {
 
 export class ReadCache {
   private readonly writes = new Map<TableName, number>()
-  private readonly stores = new Map<string, Map<string, Cached<unknown>>>()
+  private readonly stores = new Map<string, LRUCache<string, Cached<unknown>>>()
 
   constructor(db: Database) {
     const models = db.models as unknown as Record<TableName, ModelStatic<Model> | undefined>
@@ -54,15 +55,13 @@ export class ReadCache {
   /** The cached answer for `key` if none of `tables` changed since it was read; otherwise reads it. */
   async read<T>(store: string, key: string, tables: readonly TableName[], load: () => Promise<T>): Promise<T> {
     let entries = this.stores.get(store)
-    if (!entries) this.stores.set(store, (entries = new Map()))
+    if (!entries) this.stores.set(store, (entries = new LRUCache({ max: MAX_ENTRIES })))
     const hit = entries.get(key)
     if (hit && hit.stamp === this.stampOf(tables)) return hit.value as T
     // the stamp before reading: a write during the read leaves this answer already stale
     const stamp = this.stampOf(tables)
     const value = await load()
-    entries.delete(key)
     entries.set(key, { stamp, value })
-    if (entries.size > MAX_ENTRIES) entries.delete(entries.keys().next().value as string)
     return value
   }
 }

@@ -5,11 +5,11 @@
  * forgotten a while after they finish.
  */
 import { randomUUID } from 'node:crypto'
+import { LRUCache } from 'lru-cache'
 import { parseWindow, windowCacheKey, type ForceWindow, type SearchAnswer, type SearchProgress } from '../../../catalog'
 import type { AppContext } from '../../context'
 import { HttpError, notFound } from '../../errors'
 import { toHttpError } from '../../middleware/error-handler'
-import { LruCache } from './cache'
 import { sharedSearchPool, type SearchPool } from './pool'
 import { loadShelf, type ShelfSnapshot } from './shelf'
 
@@ -46,7 +46,7 @@ export interface SearchOutcome {
 }
 
 export class SearchService {
-  private readonly cache = new LruCache<SearchAnswer>(CACHE_CAPACITY)
+  private readonly cache = new LRUCache<string, SearchAnswer>({ max: CACHE_CAPACITY })
   private cacheVersion = ''
   private readonly jobs = new Map<string, SearchJob>()
   /** POST /api/search answers being computed, per user (jobs are counted from `jobs`). */
