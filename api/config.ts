@@ -8,6 +8,18 @@ import { availableParallelism } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
+/** Object storage for report files and photos (FLEXSHELF_S3_*), any S3-compatible service. */
+export interface S3Settings {
+  bucket: string
+  /** Unset for AWS itself; the URL of another S3-compatible service (or npm run dev:s3). */
+  endpoint: string | null
+  region: string
+  accessKeyId: string | null
+  secretAccessKey: string | null
+  /** Bucket in the path (http://host/bucket/key) rather than the host name; most non-AWS services want it. */
+  forcePathStyle: boolean
+}
+
 export interface Config {
   production: boolean
   port: number
@@ -17,6 +29,8 @@ export interface Config {
   /** FLEXSHELF_DATABASE_URL: a postgres:// URL shared by several instances; null keeps the embedded SQLite file. */
   databaseUrl: string | null
   uploadsDir: string
+  /** FLEXSHELF_S3_BUCKET and friends: report files and photos in a bucket; null keeps them in uploadsDir. */
+  s3: S3Settings | null
   /** Where vite puts the built web app. */
   webDir: string
   jwtSecret: string
@@ -129,6 +143,41 @@ function checkMailSettings(env: NodeJS.ProcessEnv, production: boolean): void {
   if (url && !from) throw new ConfigError('FLEXSHELF_SMTP_URL is set but FLEXSHELF_MAIL_FROM is not; set the sender address too, e.g. "Flexshelf <flexshelf@example.test>"')
 }
 
+function parseS3Settings(env: NodeJS.ProcessEnv): S3Settings | null {
+  const bucket = env.FLEXSHELF_S3_BUCKET || ''
+  const others = ['FLEXSHELF_S3_ENDPOINT', 'FLEXSHELF_S3_ACCESS_KEY_ID', 'FLEXSHELF_S3_SECRET_ACCESS_KEY'].filter((name) => env[name])
+  if (!bucket) {
+    if (others.length) throw new ConfigError(`${others[0]} is set but FLEXSHELF_S3_BUCKET is not; set the bucket too, or none of the FLEXSHELF_S3_ settings to keep files in the data folder`)
+    return null
+  }
+  // S3's own naming rule: 3–63 lower-case letters, digits, dots and hyphens
+  if (!/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/.test(bucket)) throw new ConfigError(`FLEXSHELF_S3_BUCKET must be a bucket name of 3–63 lower-case letters, digits, dots and hyphens (got "${bucket}")`)
+  const endpoint = env.FLEXSHELF_S3_ENDPOINT || null
+  if (endpoint) {
+    let parsed: URL
+    try {
+      parsed = new URL(endpoint)
+    } catch {
+      throw new ConfigError('FLEXSHELF_S3_ENDPOINT must be a URL like https://s3.example.test or http://127.0.0.1:4568')
+    }
+    if (parsed.protocol !== 'http:' && parsed.protocol !== 'https:') throw new ConfigError(`FLEXSHELF_S3_ENDPOINT must start with http:// or https:// (got ${parsed.protocol}//)`)
+  }
+  const accessKeyId = env.FLEXSHELF_S3_ACCESS_KEY_ID || null
+  const secretAccessKey = env.FLEXSHELF_S3_SECRET_ACCESS_KEY || null
+  if (Boolean(accessKeyId) !== Boolean(secretAccessKey)) throw new ConfigError('FLEXSHELF_S3_ACCESS_KEY_ID and FLEXSHELF_S3_SECRET_ACCESS_KEY go together; give both, or neither to use the machine\'s own credentials')
+  const style = (env.FLEXSHELF_S3_FORCE_PATH_STYLE || '').toLowerCase()
+  if (style && !['true', 'false', '1', '0'].includes(style)) throw new ConfigError(`FLEXSHELF_S3_FORCE_PATH_STYLE must be true or false (got "${env.FLEXSHELF_S3_FORCE_PATH_STYLE}")`)
+  return {
+    bucket,
+    endpoint,
+    region: env.FLEXSHELF_S3_REGION || 'us-east-1',
+    accessKeyId,
+    secretAccessKey,
+    // a custom endpoint is nearly always path-style; AWS itself prefers virtual hosts
+    forcePathStyle: style ? style === 'true' || style === '1' : Boolean(endpoint),
+  }
+}
+
 function parseDatabaseUrl(value: string | undefined): string | null {
   if (!value) return null
   let parsed: URL
@@ -154,6 +203,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     databaseFile: join(dataDir, 'flexshelf.sqlite'),
     databaseUrl: parseDatabaseUrl(env.FLEXSHELF_DATABASE_URL),
     uploadsDir: join(dataDir, 'uploads'),
+    s3: parseS3Settings(env),
     webDir: join(projectRoot, 'dist', 'web'),
     jwtSecret: overrides.jwtSecret ?? resolveJwtSecret(env, dataDir, production),
     jwtExpiresIn: '8h',

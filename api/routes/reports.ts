@@ -1,4 +1,5 @@
 /** Test reports: upload and calibration under /entries/:id, review and downloads under /reports/:id. */
+import { pipeline } from 'node:stream/promises'
 import { Router, type NextFunction, type Request, type RequestHandler, type Response } from 'express'
 import multer from 'multer'
 import type { AppContext } from '../context'
@@ -68,7 +69,12 @@ export function reportsRouter(context: AppContext): Router {
       'X-Content-Type-Options': 'nosniff',
       'Cache-Control': 'private, no-store',
     })
-    res.send(body)
+    if (Buffer.isBuffer(body)) {
+      res.send(body)
+      return
+    }
+    // a stream from the store: a failure after the headers went out can only cut the answer short
+    await pipeline(body, res)
   }
 
   async function adopt(req: Request<{ id: string }>, res: Response) {

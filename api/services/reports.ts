@@ -3,12 +3,11 @@
  * and adopting a fitted modulus as a calibrated material (docs/api.md, "Test reports").
  *
  * Nothing of a refused upload is kept: files arrive in memory (multer memory storage) and
- * are written only inside the write transaction that creates the report; if that
- * transaction fails, the files written so far are removed.
+ * are stored (file-store.ts: the uploads folder or the bucket) only once every check has
+ * passed, just before the write transaction that creates the report; if that transaction
+ * fails, the files stored are removed.
  */
 import { randomBytes } from 'node:crypto'
-import { mkdir, readFile, unlink, writeFile } from 'node:fs/promises'
-import { join, resolve, sep } from 'node:path'
 import { Op } from 'sequelize'
 import { z } from 'zod'
 import { calibrationSummary, families } from '../../catalog'
@@ -23,6 +22,7 @@ import { librarianAddresses, notify, type Notice } from './notifications'
 import { compareReport, predictedMaterialOf } from './report-comparison'
 import { CsvError, DISPLACEMENT_UNITS, FORCE_UNITS, MOMENT_UNITS, parseMeasuredCurve, ROTATION_UNITS } from './report-csv'
 import { neutraliseCsvFormulae } from './csv-safety'
+import { fileStore } from './file-store'
 
 export interface UploadedFile {
   originalname: string
@@ -82,14 +82,6 @@ function checkUnits(entry: Entry, displacementUnit: string | undefined, forceUni
   return { displacementUnit: d as 'mm', forceUnit: f as 'N' }
 }
 
-function storedPath(context: AppContext, relativePath: string): string {
-  const root = resolve(context.config.uploadsDir)
-  const full = resolve(root, relativePath)
-  // stored paths are generated here, but a path is still never followed outside the uploads folder
-  if (!full.startsWith(root + sep)) throw notFound('file')
-  return full
-}
-
 const generatedName = (extension: string) => `${randomBytes(16).toString('hex')}.${extension}`
 
 async function loadVisibleEntry(context: AppContext, viewer: User, entryId: number): Promise<Entry> {
@@ -126,11 +118,18 @@ export async function createReport(context: AppContext, actor: User, entryId: nu
     throw new HttpError(400, 'validation_failed', message, { issues: [{ field, message }], row, column })
   }
 
-  const filePath = join('reports', generatedName('csv'))
-  const photoPath = photo ? join('photos', generatedName(photoType === 'png' ? 'png' : 'jpg')) : null
+  const filePath = `reports/${generatedName('csv')}`
+  const photoPath = photo ? `photos/${generatedName(photoType === 'png' ? 'png' : 'jpg')}` : null
+  // the files go first, under new random keys, and the row that points at them second: a write
+  // transaction may run more than once (PostgreSQL retries a conflict), a file write must not
+  const store = fileStore(context.config)
   const written: string[] = []
   let report: TestReport
   try {
+    for (const [key, buffer, type] of [[filePath, file.buffer, 'text/csv'], ...(photo && photoPath ? [[photoPath, photo.buffer, photoType === 'png' ? 'image/png' : 'image/jpeg']] : [])] as Array<[string, Buffer, string]>) {
+      await store.put(key, buffer, type)
+      written.push(key)
+    }
     report = await context.db.write(async (transaction) => {
       const created = await TestReport.create({
         entryId: entry.id, revisionId: revision.id, uploaderId: actor.id, reviewerId: null,
@@ -143,16 +142,10 @@ export async function createReport(context: AppContext, actor: User, entryId: nu
         actorId: actor.id, action: 'report.submitted', subjectType: 'report', subjectId: created.id,
         details: { from: null, to: 'submitted', entryId: entry.id, revisionId: revision.id, points: parsed.curve.displacement.length },
       })
-      for (const [path, buffer] of [[filePath, file.buffer], ...(photo && photoPath ? [[photoPath, photo.buffer]] : [])] as Array<[string, Buffer]>) {
-        const full = storedPath(context, path)
-        await mkdir(resolve(full, '..'), { recursive: true })
-        await writeFile(full, buffer, { flag: 'wx', mode: 0o640 })
-        written.push(full)
-      }
       return created
     })
   } catch (err) {
-    await Promise.all(written.map((p) => unlink(p).catch(() => undefined)))
+    await Promise.all(written.map((key) => store.remove(key)))
     throw err
   }
   await notify(context, [{
@@ -231,15 +224,17 @@ export async function reportDownload(context: AppContext, viewer: User, reportId
   const report = await loadVisibleReport(context, viewer, reportId)
   const path = which === 'file' ? report.filePath : report.photoPath
   if (!path) throw notFound('photo of this test report')
-  const full = storedPath(context, path)
-  let body: Buffer
-  try {
-    body = await readFile(full)
-  } catch {
-    throw notFound(which === 'file' ? 'stored file of this test report' : 'stored photo of this test report')
+  const store = fileStore(context.config)
+  const missing = () => notFound(which === 'file' ? 'stored file of this test report' : 'stored photo of this test report')
+  if (which === 'file') {
+    const body = await store.read(path)
+    if (!body) throw missing()
+    // the upload's own text, but no cell a spreadsheet would run as a formula (csv-safety.ts)
+    return { body: Buffer.from(neutraliseCsvFormulae(body.toString('utf8'))), contentType: 'text/csv; charset=utf-8', filename: `flexshelf-report-${report.id}.csv` }
   }
-  // the upload's own text, but no cell a spreadsheet would run as a formula (csv-safety.ts)
-  if (which === 'file') return { body: Buffer.from(neutraliseCsvFormulae(body.toString('utf8'))), contentType: 'text/csv; charset=utf-8', filename: `flexshelf-report-${report.id}.csv` }
+  // a photo is sent on as it arrives from the store (up to 5 MB, no need to hold it whole)
+  const body = await store.stream(path)
+  if (!body) throw missing()
   const png = path.endsWith('.png')
   return { body, contentType: png ? 'image/png' : 'image/jpeg', filename: `flexshelf-report-${report.id}-photo.${png ? 'png' : 'jpg'}` }
 }
