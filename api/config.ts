@@ -7,6 +7,8 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { availableParallelism } from 'node:os'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { ROLES, type Role } from './roles'
+import { describeWeakSecret } from './secret-strength'
 
 /** Object storage for report files and photos (FLEXSHELF_S3_*), any S3-compatible service. */
 export interface S3Settings {
@@ -56,6 +58,30 @@ export interface Config {
   mail: { smtpUrl: string | null; from: string }
   /** Largest test-report CSV and photo accepted, in bytes. */
   uploadLimits: { csvBytes: number; photoBytes: number }
+  /** The address people open (links in e-mails, the single sign-on redirect), without a trailing slash. */
+  publicUrl: string
+  /** Who may create an account with a password (FLEXSHELF_SIGNUP, FLEXSHELF_SIGNUP_DOMAINS; api/services/signup-policy.ts). */
+  signup: { mode: 'open' | 'off'; domains: string[] }
+  /** Password sign-in, sign-up and reset; may be switched off only when single sign-on is on. */
+  passwordSignin: boolean
+  /** OpenID Connect single sign-on, or null when off (api/services/oidc.ts). */
+  oidc: OidcSettings | null
+  /** Bearer token that opens /metrics; null keeps /metrics closed (404). */
+  metricsToken: string | null
+  /** pino level of the JSON request log ('silent' in tests). */
+  logLevel: string
+}
+
+export interface OidcSettings {
+  issuer: string
+  clientId: string
+  clientSecret: string
+  redirectUrl: string
+  /** The sign-in button's label. */
+  name: string
+  /** The claim holding the user's groups, and group → role; an empty map leaves roles to the admins. */
+  roleClaim: string
+  roles: Record<string, Role>
 }
 
 /** bcrypt cost of 2^12 rounds: about a quarter second per hash on a laptop core. */
@@ -93,13 +119,14 @@ function parseInteger(value: string | undefined, name: string, fallback: number,
 function resolveJwtSecret(env: NodeJS.ProcessEnv, dataDir: string, production: boolean): string {
   const given = env.FLEXSHELF_JWT_SECRET
   if (given) {
-    if (production && given.length < MIN_PRODUCTION_SECRET_LENGTH) {
-      throw new ConfigError(`FLEXSHELF_JWT_SECRET must be at least ${MIN_PRODUCTION_SECRET_LENGTH} characters in production`)
+    if (production) {
+      const weakness = describeWeakSecret(given, MIN_PRODUCTION_SECRET_LENGTH)
+      if (weakness) throw new ConfigError(`FLEXSHELF_JWT_SECRET ${weakness}; make a new one with \`npm run --silent admin -- secret\` (or \`openssl rand -base64 48\`) and set it in the server's environment`)
     }
     return given
   }
   if (production) {
-    throw new ConfigError('FLEXSHELF_JWT_SECRET must be set in production (a random string of at least 32 characters); refusing to start')
+    throw new ConfigError('FLEXSHELF_JWT_SECRET must be set in production (a random string of at least 32 characters; make one with `npm run --silent admin -- secret`); refusing to start')
   }
   const file = join(dataDir, JWT_SECRET_FILE)
   try {
@@ -192,13 +219,105 @@ function parseDatabaseUrl(value: string | undefined): string | null {
   return value
 }
 
+const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']
+const DOMAIN = /^(?=.{1,253}$)([a-z0-9](?:[a-z0-9-]{0,61}[a-z0-9])?\.)+[a-z]{2,63}$/
+
+function parseChoice<T extends string>(value: string | undefined, name: string, choices: readonly T[], fallback: T): T {
+  if (value === undefined || value === '') return fallback
+  const v = value.trim().toLowerCase() as T
+  if (!choices.includes(v)) throw new ConfigError(`${name} must be one of ${choices.join(', ')} (got "${value}")`)
+  return v
+}
+
+function parseSignup(env: NodeJS.ProcessEnv): Config['signup'] {
+  const mode = parseChoice(env.FLEXSHELF_SIGNUP, 'FLEXSHELF_SIGNUP', ['open', 'off'] as const, 'open')
+  const domains = (env.FLEXSHELF_SIGNUP_DOMAINS ?? '').split(',').map((d) => d.trim().toLowerCase().replace(/^@/, '')).filter(Boolean)
+  for (const d of domains) {
+    if (!DOMAIN.test(d)) throw new ConfigError(`FLEXSHELF_SIGNUP_DOMAINS must be e-mail domains separated by commas, e.g. "example.test,lab.example.test" ("${d}" is not a domain)`)
+  }
+  return { mode, domains }
+}
+
+function parsePublicUrl(env: NodeJS.ProcessEnv, port: number): string {
+  const raw = env.FLEXSHELF_PUBLIC_URL
+  if (!raw) return `http://localhost:${port || 3000}`
+  let url: URL
+  try {
+    url = new URL(raw)
+  } catch {
+    throw new ConfigError(`FLEXSHELF_PUBLIC_URL must be the address people open, like https://flexshelf.example.test (got "${raw}")`)
+  }
+  if (url.protocol !== 'http:' && url.protocol !== 'https:') throw new ConfigError('FLEXSHELF_PUBLIC_URL must start with https:// (or http://)')
+  if (url.search || url.hash) throw new ConfigError('FLEXSHELF_PUBLIC_URL must not carry a query or a fragment')
+  return url.href.replace(/\/+$/, '')
+}
+
+function parseOidc(env: NodeJS.ProcessEnv, publicUrl: string, production: boolean): OidcSettings | null {
+  const issuer = env.FLEXSHELF_OIDC_ISSUER || ''
+  const clientId = env.FLEXSHELF_OIDC_CLIENT_ID || ''
+  const clientSecret = env.FLEXSHELF_OIDC_CLIENT_SECRET || ''
+  if (!issuer && !clientId && !clientSecret) return null
+  if (!issuer || !clientId || !clientSecret) {
+    const missing = [!issuer && 'FLEXSHELF_OIDC_ISSUER', !clientId && 'FLEXSHELF_OIDC_CLIENT_ID', !clientSecret && 'FLEXSHELF_OIDC_CLIENT_SECRET'].filter(Boolean)
+    throw new ConfigError(`single sign-on needs FLEXSHELF_OIDC_ISSUER, FLEXSHELF_OIDC_CLIENT_ID and FLEXSHELF_OIDC_CLIENT_SECRET together; missing ${missing.join(', ')}`)
+  }
+  const checkUrl = (name: string, value: string): string => {
+    let url: URL
+    try {
+      url = new URL(value)
+    } catch {
+      throw new ConfigError(`${name} must be a URL (got "${value}")`)
+    }
+    const loopback = ['localhost', '127.0.0.1', '[::1]'].includes(url.hostname)
+    if (url.protocol !== 'https:' && !(url.protocol === 'http:' && (loopback || !production))) {
+      throw new ConfigError(`${name} must be an https:// URL (plain http is accepted only on this machine or outside production)`)
+    }
+    return url.href
+  }
+  const issuerUrl = checkUrl('FLEXSHELF_OIDC_ISSUER', issuer)
+  const redirectUrl = checkUrl('FLEXSHELF_OIDC_REDIRECT_URL', env.FLEXSHELF_OIDC_REDIRECT_URL || `${publicUrl}/api/auth/oidc/callback`)
+  let roles: Record<string, Role> = {}
+  if (env.FLEXSHELF_OIDC_ROLES) {
+    let parsed: unknown
+    try {
+      parsed = JSON.parse(env.FLEXSHELF_OIDC_ROLES)
+    } catch {
+      throw new ConfigError('FLEXSHELF_OIDC_ROLES must be JSON from group to role, e.g. {"flexshelf-admins":"admin","flexshelf-librarians":"librarian"}')
+    }
+    if (!parsed || typeof parsed !== 'object' || Array.isArray(parsed)) throw new ConfigError('FLEXSHELF_OIDC_ROLES must be a JSON object from group to role')
+    for (const [group, role] of Object.entries(parsed)) {
+      if (!ROLES.includes(role as Role)) throw new ConfigError(`FLEXSHELF_OIDC_ROLES: group "${group}" maps to "${String(role)}"; roles are ${ROLES.join(', ')}`)
+    }
+    roles = parsed as Record<string, Role>
+  }
+  return {
+    issuer: issuerUrl.replace(/\/$/, ''),
+    clientId,
+    clientSecret,
+    redirectUrl,
+    name: (env.FLEXSHELF_OIDC_NAME || 'single sign-on').trim().slice(0, 60),
+    roleClaim: env.FLEXSHELF_OIDC_ROLE_CLAIM || 'groups',
+    roles,
+  }
+}
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
   const production = env.NODE_ENV === 'production'
   checkMailSettings(env, production)
   const dataDir = resolve(env.FLEXSHELF_DATA || join(projectRoot, 'data'))
+  const port = parseInteger(env.PORT, 'PORT', 3000, 0, 65535)
+  const publicUrl = parsePublicUrl(env, port)
+  const oidc = parseOidc(env, publicUrl, production)
+  const passwordSignin = parseChoice(env.FLEXSHELF_PASSWORD_SIGNIN, 'FLEXSHELF_PASSWORD_SIGNIN', ['on', 'off'] as const, 'on') === 'on'
+  if (!passwordSignin && !oidc) throw new ConfigError('FLEXSHELF_PASSWORD_SIGNIN=off needs single sign-on (FLEXSHELF_OIDC_ISSUER and its client settings), or nobody could sign in')
+  const metricsToken = env.FLEXSHELF_METRICS_TOKEN || null
+  if (metricsToken) {
+    const weakness = describeWeakSecret(metricsToken, 24)
+    if (weakness) throw new ConfigError(`FLEXSHELF_METRICS_TOKEN ${weakness}; make one with \`npm run --silent admin -- secret\``)
+  }
   const config: Config = {
     production,
-    port: parseInteger(env.PORT, 'PORT', 3000, 0, 65535),
+    port,
     dataDir,
     databaseFile: join(dataDir, 'flexshelf.sqlite'),
     databaseUrl: parseDatabaseUrl(env.FLEXSHELF_DATABASE_URL),
@@ -231,6 +350,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
       from: env.FLEXSHELF_MAIL_FROM || 'Flexshelf <flexshelf@localhost>',
     },
     uploadLimits: { csvBytes: 2 * 1024 * 1024, photoBytes: 5 * 1024 * 1024 },
+    publicUrl,
+    signup: parseSignup(env),
+    passwordSignin,
+    oidc,
+    metricsToken,
+    logLevel: parseChoice(env.FLEXSHELF_LOG_LEVEL, 'FLEXSHELF_LOG_LEVEL', LOG_LEVELS, 'info'),
     ...overrides,
   }
   return config

@@ -6,8 +6,21 @@ import { mkdirSync } from 'node:fs'
 import { createApp } from './app'
 import { ConfigError, loadConfig } from './config'
 import { openDatabase } from './db'
-import { seedDemoData } from './db/seed'
+import { seedBuiltinMaterials, seedDemoData } from './db/seed'
+import { demoAccountsWithPassword } from './services/admin-accounts'
 import { configureComputePool } from './services/compute-pool'
+
+/** A production server must not run with accounts whose password is printed in the README. */
+async function refuseDemoAccounts(context: { config: ReturnType<typeof loadConfig>; db: Awaited<ReturnType<typeof openDatabase>> }): Promise<void> {
+  const demo = await demoAccountsWithPassword(context)
+  if (!demo.length) return
+  await context.db.close()
+  throw new ConfigError(
+    `this data folder (${context.config.dataDir}) holds demo accounts with the published demo password (${demo.map((u) => u.email).join(', ')}). `
+    + 'Remove them with `NODE_ENV=production FLEXSHELF_DATA=<this folder> npm run --silent admin -- remove-demo`, '
+    + 'or start production on a new, empty data folder and add the first admin with `npm run --silent admin -- add --role admin …` (README, "Production")',
+  )
+}
 
 async function main(): Promise<void> {
   const config = loadConfig()
@@ -20,7 +33,10 @@ async function main(): Promise<void> {
     console.log(`Demo data: ${report.usersCreated} users, ${report.materialsCreated} materials, ${report.entriesCreated} entries added`)
     for (const s of report.skipped) console.warn(`Demo entry "${s.name}" (${s.familyId}) not seeded: ${s.reason}`)
     if (report.familiesPending.length) console.log(`Demo entries waiting for families: ${report.familiesPending.join(', ')}`)
+  } else {
+    await seedBuiltinMaterials(context)
   }
+  if (config.production) await refuseDemoAccounts(context)
 
   await configureComputePool({ threads: config.computeThreads, budgetMs: config.computeBudgetMs })
   const app = createApp(context)

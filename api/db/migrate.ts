@@ -7,11 +7,13 @@ import { SequelizeStorage, Umzug, type RunnableMigration } from 'umzug'
 import * as initial from './migrations/0001-initial'
 import * as curation from './migrations/0002-curation'
 import * as savedConfigurationSettings from './migrations/0003-saved-configuration-settings'
+import * as accounts from './migrations/0004-accounts'
 
 const migrations: RunnableMigration<QueryInterface>[] = [
   { name: '0001-initial', up: initial.up, down: initial.down },
   { name: '0002-curation', up: curation.up, down: curation.down },
   { name: '0003-saved-configuration-settings', up: savedConfigurationSettings.up, down: savedConfigurationSettings.down },
+  { name: '0004-accounts', up: accounts.up, down: accounts.down },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

@@ -78,6 +78,24 @@ export interface SeedOptions {
 /** The advisory lock two instances seeding one PostgreSQL database at the same moment take turns on. */
 const SEED_LOCK_KEY = 0x466c7364 // "Flsd"
 
+/** The built-in materials (catalog reference data with their sources, not demo data): in every mode. */
+async function seedMaterialsIn(context: AppContext, transaction: Transaction): Promise<number> {
+  let created = 0
+  for (const m of builtinMaterials) {
+    const [, isNew] = await context.db.models.Material.findOrCreate({
+      where: { id: m.id },
+      defaults: { id: m.id, name: m.name, process: m.process, modulus: m.modulus, strainLimit: m.strainLimit, density: m.density, notes: '', source: m.source },
+      transaction,
+    })
+    if (isNew) created++
+  }
+  return created
+}
+
+export function seedBuiltinMaterials(context: AppContext): Promise<number> {
+  return context.db.write((transaction) => seedMaterialsIn(context, transaction))
+}
+
 /**
  * Seeds once however many instances start together: on PostgreSQL the whole seed holds an
  * advisory lock, so a second instance waits, then finds every record present and adds none.
@@ -90,7 +108,7 @@ export async function seedDemoData(context: AppContext, options: SeedOptions = {
 
 async function seedUnlocked(context: AppContext, options: SeedOptions): Promise<SeedReport> {
   const registered = options.registeredFamilies ?? families.map((f) => f.id)
-  const { User, Material } = context.db.models
+  const { User } = context.db.models
   const report: SeedReport = { usersCreated: 0, materialsCreated: 0, entriesCreated: 0, skipped: [], familiesPending: [] }
 
   // hash outside the write transaction: bcrypt is slow on purpose, writers should not wait
@@ -108,14 +126,7 @@ async function seedUnlocked(context: AppContext, options: SeedOptions): Promise<
       })
       if (created) report.usersCreated++
     }
-    for (const m of builtinMaterials) {
-      const [, created] = await Material.findOrCreate({
-        where: { id: m.id },
-        defaults: { id: m.id, name: m.name, process: m.process, modulus: m.modulus, strainLimit: m.strainLimit, density: m.density, notes: '', source: m.source },
-        transaction,
-      })
-      if (created) report.materialsCreated++
-    }
+    report.materialsCreated += await seedMaterialsIn(context, transaction)
     for (const [familyId, entries] of Object.entries(DEMO_SHELF)) {
       if (!registered.includes(familyId) || !families.some((f) => f.id === familyId)) {
         report.familiesPending.push(familyId)

@@ -5,7 +5,7 @@
  */
 import type { NextFunction, Request, RequestHandler, Response } from 'express'
 import type { AppContext } from '../context'
-import { unauthenticated } from '../errors'
+import { HttpError, unauthenticated } from '../errors'
 import { authenticateToken, type Authenticated } from '../services/auth'
 
 declare global {
@@ -23,13 +23,29 @@ export const PUBLIC_ROUTES: ReadonlyArray<{ method: string; path: string }> = [
   { method: 'GET', path: '/health' },
   { method: 'POST', path: '/auth/signup' },
   { method: 'POST', path: '/auth/signin' },
+  { method: 'GET', path: '/auth/options' },
+  { method: 'POST', path: '/auth/password-reset' },
+  { method: 'POST', path: '/auth/password-reset/confirm' },
+  { method: 'GET', path: '/auth/oidc/start' },
+  { method: 'GET', path: '/auth/oidc/callback' },
+  { method: 'POST', path: '/auth/oidc/session' },
+  { method: 'GET', path: '/ready' },
 ]
 
-function isPublic(req: Request): boolean {
+/** What a user with a one-time password may do before choosing their own. */
+const BEFORE_PASSWORD_CHANGE: ReadonlyArray<{ method: string; path: string }> = [
+  { method: 'GET', path: '/auth/me' },
+  { method: 'POST', path: '/auth/password' },
+  { method: 'POST', path: '/auth/signout' },
+]
+
+function listed(req: Request, list: ReadonlyArray<{ method: string; path: string }>): boolean {
   const method = req.method === 'HEAD' ? 'GET' : req.method
   const path = req.path.length > 1 ? req.path.replace(/\/+$/, '') : req.path
-  return PUBLIC_ROUTES.some((r) => r.method === method && r.path === path)
+  return list.some((r) => r.method === method && r.path === path)
 }
+
+const isPublic = (req: Request) => listed(req, PUBLIC_ROUTES)
 
 const BEARER = /^Bearer ([A-Za-z0-9_\-.]+)$/
 
@@ -41,6 +57,9 @@ export function authenticate(context: AppContext): RequestHandler {
     const match = BEARER.exec(header)
     if (!match) throw unauthenticated('the Authorization header must be "Bearer <token>"')
     req.auth = await authenticateToken(context, match[1])
+    if (req.auth.user.passwordMustChange && !listed(req, BEFORE_PASSWORD_CHANGE)) {
+      throw new HttpError(403, 'password_change_required', 'choose your own password first: this account still has the one-time password it was given (POST /api/auth/password)')
+    }
     next()
   }
 }

@@ -1,5 +1,6 @@
 import type { Router } from 'express'
 import type { AppContext } from '../context'
+import { accountRouter } from './account'
 import { auditRouter } from './audit'
 import { authRouter } from './auth'
 import { configurationsRouter, sharedRouter } from './configurations'
@@ -21,6 +22,7 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
   return [
     { path: '/health', router: healthRouter(context) },
     { path: '/auth', router: authRouter(context) },
+    { path: '/auth', router: accountRouter(context) },
     { path: '/users', router: usersRouter(context) },
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },

@@ -1,6 +1,7 @@
 /**
  * Sign-up, sign-in, sign-out and token checks. Tokens are HS256 JWTs carrying the user id,
- * the user's tokenVersion (bumped on a role change) and a jti (listed when signed out).
+ * the user's tokenVersion (bumped on a role or password change) and a jti (listed when
+ * signed out).
  */
 import { createSecretKey, randomUUID, type KeyObject } from 'node:crypto'
 import jwt from 'jsonwebtoken'
@@ -12,14 +13,17 @@ import { HttpError, unauthenticated } from '../errors'
 import { bodySchema, parseBody, textField } from '../validation'
 import { recordAudit } from './audit'
 import { compute } from './compute-pool'
+import { countSigninFailure } from './metrics'
+import { assertStrongPassword, newPasswordField, PASSWORD_MAX_BYTES } from './password-policy'
 import { readCache } from './read-cache'
+import { assertPasswordSignin, assertSignupAllowed } from './signup-policy'
 import { toUserView, type UserView } from './users'
 
-export const PASSWORD_MIN_LENGTH = 10
-/** bcrypt reads only the first 72 bytes of a password; longer ones would be silently cut. */
-export const PASSWORD_MAX_BYTES = 72
+export { newPasswordField, PASSWORD_MAX_BYTES, PASSWORD_MIN_LENGTH } from './password-policy'
 const JWT_ALGORITHM = 'HS256' as const
 const WRONG_CREDENTIALS = 'e-mail or password is wrong'
+/** How long a token's user lookup may be reused at most, ms. */
+export const SESSION_RECHECK_MS = 10_000
 
 export const emailField = z
   .string({ error: (iss) => (iss.input === undefined ? 'email is required' : 'email must be text') })
@@ -28,14 +32,7 @@ export const emailField = z
   .max(254, 'email must be at most 254 characters')
   .email({ error: 'email must be an e-mail address' })
 
-export const newPasswordField = z
-  .string({ error: (iss) => (iss.input === undefined ? 'password is required' : 'password must be text') })
-  .min(PASSWORD_MIN_LENGTH, `password must be at least ${PASSWORD_MIN_LENGTH} characters`)
-  .refine((v) => Buffer.byteLength(v, 'utf8') <= PASSWORD_MAX_BYTES, {
-    message: `password must be at most ${PASSWORD_MAX_BYTES} bytes (bcrypt uses only the first ${PASSWORD_MAX_BYTES})`,
-  })
-
-const signupBody = bodySchema({ email: emailField, password: newPasswordField, displayName: textField('displayName', 80) })
+const signupBody = bodySchema({ email: emailField, password: newPasswordField('password'), displayName: textField('displayName', 80) })
 
 const signinBody = bodySchema({
   email: emailField,
@@ -75,7 +72,10 @@ export function issueToken(context: AppContext, user: User): string {
 }
 
 export async function signUp(context: AppContext, body: unknown): Promise<Session> {
+  assertPasswordSignin(context)
   const input = parseBody(signupBody, body)
+  assertSignupAllowed(context, input.email)
+  await assertStrongPassword(input.password, [input.email, input.displayName])
   const passwordHash = await hashPassword(context, input.password)
   const { User } = context.db.models
   const user = await context.db.write(async (transaction) => {
@@ -93,19 +93,31 @@ export async function signUp(context: AppContext, body: unknown): Promise<Sessio
 let dummyHash: Promise<string> | undefined
 
 export async function signIn(context: AppContext, body: unknown): Promise<Session> {
+  assertPasswordSignin(context)
   const input = parseBody(signinBody, body)
   const user = await context.db.models.User.findOne({ where: { email: input.email } })
   // bcrypt compares only the first 72 bytes, so a longer guess could match a 72-byte
-  // password it merely starts with; no stored password is longer, so refuse it outright
+  // password it merely starts with; no stored password is longer, so refuse it outright.
+  // An account without a password (single sign-on only) is refused the same way.
   const tooLong = Buffer.byteLength(input.password, 'utf8') > PASSWORD_MAX_BYTES
-  if (!user || tooLong) {
+  if (!user || tooLong || !user.passwordHash) {
     dummyHash ??= compute.hashPassword('not-a-password-of-anyone', context.config.bcryptCost)
     await compute.comparePassword(input.password, await dummyHash)
+    countSigninFailure('wrong_credentials')
     throw unauthenticated(WRONG_CREDENTIALS)
   }
   // bcrypt on the compute pool: a burst of sign-ins does not stall other requests
-  if (!(await compute.comparePassword(input.password, user.passwordHash))) throw unauthenticated(WRONG_CREDENTIALS)
+  if (!(await compute.comparePassword(input.password, user.passwordHash))) {
+    countSigninFailure('wrong_credentials')
+    throw unauthenticated(WRONG_CREDENTIALS)
+  }
   return { token: issueToken(context, user), user: toUserView(user) }
+}
+
+/** Checks a password against the user's stored hash on the compute pool; false for an account without one. */
+export async function passwordMatches(user: User, password: string): Promise<boolean> {
+  if (!user.passwordHash || Buffer.byteLength(password, 'utf8') > PASSWORD_MAX_BYTES) return false
+  return compute.comparePassword(password, user.passwordHash)
 }
 
 // jsonwebtoken turns a string secret into a key object on every call; once per config is enough
@@ -134,15 +146,20 @@ export async function authenticateToken(context: AppContext, token: string): Pro
   const claims = verifyClaims(context, token)
   const { User, RevokedToken } = context.db.models
   // the two lookups behind every request, kept until a user or a revocation is written
-  // (read-cache.ts), so sign-out and role changes still take effect on the next request
-  const found = await readCache(context.db).read('session', `${claims.jti}|${claims.sub}`, ['User', 'RevokedToken'], async () => ({
+  // (read-cache.ts), so sign-out and role changes still take effect on the next request; the
+  // key also changes every SESSION_RECHECK_MS, so a change made by the admin command line (another
+  // process, whose writes the hooks cannot see) takes effect within that time
+  const bucket = Math.floor(Date.now() / SESSION_RECHECK_MS)
+  const found = await readCache(context.db).read('session', `${claims.jti}|${claims.sub}|${bucket}`, ['User', 'RevokedToken'], async () => ({
     revoked: Boolean(await RevokedToken.findByPk(claims.jti)),
     user: await User.findByPk(Number(claims.sub)),
   }))
   if (found.revoked) throw unauthenticated('this session has been signed out; sign in again')
   const { user } = found
   if (!user) throw unauthenticated('the account no longer exists')
-  if (user.tokenVersion !== claims.ver) throw unauthenticated('your role has changed; sign in again')
+  // the session that changed the password carries on (password-change.ts); a role change or a reset clears it
+  const carried = user.carriedSessionJti !== null && claims.jti === user.carriedSessionJti
+  if (user.tokenVersion !== claims.ver && !carried) throw unauthenticated('your role or password has changed; sign in again')
   return { user, jti: claims.jti, expiresAt: new Date(claims.exp * 1000) }
 }
 

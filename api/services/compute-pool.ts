@@ -24,6 +24,7 @@ import type { ToleranceBand } from '../../catalog/tolerance'
 import type { PrinterProfile } from '../../catalog/window'
 import { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS, type ComputeAsk } from './compute/budget'
 import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask } from './compute/tasks'
+import { computeJobDuration, setComputeQueueProbe } from './metrics'
 
 export { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS } from './compute/budget'
 
@@ -78,6 +79,29 @@ export async function configureComputePool(options: ComputePoolOptions): Promise
 export const computeThreads = () => (pool ? pool.maxThreads : 0)
 export const computeBudgetMs = () => budgetMs
 
+// for /metrics: tasks submitted and not yet answered; those not waiting in a piscina queue are running
+let inFlight = 0
+const queued = () => Math.min(inFlight, (pool?.queueSize ?? 0) + (passwordPool?.queueSize ?? 0))
+setComputeQueueProbe({ queued, running: () => inFlight - queued() })
+
+async function timed<T>(kind: ComputeTask['kind'], work: () => Promise<T>): Promise<T> {
+  const stop = computeJobDuration.startTimer({ kind })
+  inFlight++
+  try {
+    const value = await work()
+    stop({ outcome: 'ok' })
+    return value
+  } catch (err) {
+    stop({ outcome: 'failed' })
+    throw err
+  } finally {
+    inFlight--
+  }
+}
+
+const runBudgeted = (task: ComputeTask, ask: ComputeAsk) => timed(task.kind, () => runBudgetedUntimed(task, ask))
+const runPassword = (task: Extract<ComputeTask, { kind: 'hashPassword' | 'comparePassword' }>) => timed(task.kind, () => runPasswordUntimed(task))
+
 function isQueueFull(err: unknown): boolean {
   return err instanceof Error && /queue is at limit|No task queue available/i.test(err.message)
 }
@@ -86,7 +110,7 @@ function isQueueFull(err: unknown): boolean {
  * Runs a task on the compute pool under the budget. The worker posts on `started` as soon as
  * it picks the task up; only then does the budget's clock start.
  */
-async function runBudgeted(task: ComputeTask, ask: ComputeAsk): Promise<unknown> {
+async function runBudgetedUntimed(task: ComputeTask, ask: ComputeAsk): Promise<unknown> {
   if (!pool) return runTask(task)
   const current = pool
   const limit = budgetMs
@@ -114,7 +138,7 @@ async function runBudgeted(task: ComputeTask, ask: ComputeAsk): Promise<unknown>
   }
 }
 
-async function runPassword(task: Extract<ComputeTask, { kind: 'hashPassword' | 'comparePassword' }>): Promise<unknown> {
+async function runPasswordUntimed(task: Extract<ComputeTask, { kind: 'hashPassword' | 'comparePassword' }>): Promise<unknown> {
   if (!passwordPool) {
     // without threads bcrypt runs in its asynchronous form, which yields between rounds
     return task.kind === 'hashPassword' ? bcrypt.hash(task.password, task.cost) : bcrypt.compare(task.password, task.hash)

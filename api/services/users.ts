@@ -14,10 +14,19 @@ export interface UserView {
   displayName: string
   role: Role
   createdAt: string
+  /** Whether the account has a password here (false: single sign-on only). */
+  hasPassword: boolean
+  /** A one-time password is in use: the user must choose their own first. */
+  mustChangePassword: boolean
+  /** Linked to an identity provider account (single sign-on). */
+  sso: boolean
 }
 
 export function toUserView(user: User): UserView {
-  return { id: user.id, email: user.email, displayName: user.displayName, role: user.role, createdAt: user.createdAt.toISOString() }
+  return {
+    id: user.id, email: user.email, displayName: user.displayName, role: user.role, createdAt: user.createdAt.toISOString(),
+    hasPassword: Boolean(user.passwordHash), mustChangePassword: Boolean(user.passwordMustChange), sso: Boolean(user.oidcSubject),
+  }
 }
 
 const roleBody = bodySchema({
@@ -50,7 +59,7 @@ export async function changeRole(context: AppContext, actor: User, userId: numbe
     if (target.role === 'admin') throw forbidden("an admin's role cannot be changed here")
     if (target.role === role) return target
     const from = target.role
-    await target.update({ role, tokenVersion: target.tokenVersion + 1 }, { transaction })
+    await target.update({ role, tokenVersion: target.tokenVersion + 1, carriedSessionJti: null }, { transaction })
     await recordAudit(context, transaction, {
       actorId: actor.id, action: 'user.role_changed', subjectType: 'user', subjectId: target.id,
       details: { email: target.email, from, to: role },

@@ -53,11 +53,11 @@ describe('POST /api/auth/signup', () => {
 
   describe('with a weak password', () => {
     it('answers 400 naming the length rule when it is too short', async () => {
-      const res = await request(t.app).post('/api/auth/signup').send({ ...newAccount('short@example.test'), password: 'nine char' })
+      const res = await request(t.app).post('/api/auth/signup').send({ ...newAccount('short@example.test'), password: 'eleven char' })
       expect(res.status).toBe(400)
       expect(res.body.error.code).toBe('validation_failed')
-      expect(res.body.error.details.issues).toEqual([{ field: 'password', message: 'password must be at least 10 characters' }])
-      expect(res.body.error.message).toContain('at least 10 characters')
+      expect(res.body.error.details.issues).toEqual([{ field: 'password', message: 'password must be at least 12 characters' }])
+      expect(res.body.error.message).toContain('at least 12 characters')
     })
 
     it('answers 400 naming the 72-byte bcrypt rule when it is too long', async () => {
@@ -189,7 +189,7 @@ describe('GET /api/auth/me', () => {
       const token = await signIn(t.app, demoEmail('admin'))
       const res = await request(t.app).get('/api/auth/me').set(bearer(token))
       expect(res.status).toBe(200)
-      expect(res.body).toEqual({ user: { id: expect.any(Number), email: demoEmail('admin'), displayName: expect.any(String), role: 'admin', createdAt: expect.any(String) } })
+      expect(res.body).toEqual({ user: { id: expect.any(Number), email: demoEmail('admin'), displayName: expect.any(String), role: 'admin', createdAt: expect.any(String), hasPassword: true, mustChangePassword: false, sso: false } })
     })
   })
 
@@ -266,8 +266,9 @@ describe('the configuration', () => {
     })
 
     it('takes the secret from the environment and does not seed demo data', () => {
-      const config = loadConfig({ NODE_ENV: 'production', FLEXSHELF_DATA: makeTempDir(), FLEXSHELF_JWT_SECRET: 'p'.repeat(40) })
-      expect(config.jwtSecret).toBe('p'.repeat(40))
+      const secret = 'Qe7-hW2mZr9KxVb4NcTy1LpAs6DgFj3Uo8Ri5E'
+      const config = loadConfig({ NODE_ENV: 'production', FLEXSHELF_DATA: makeTempDir(), FLEXSHELF_JWT_SECRET: secret })
+      expect(config.jwtSecret).toBe(secret)
       expect(config.seedDemo).toBe(false)
     })
   })

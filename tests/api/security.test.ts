@@ -57,7 +57,8 @@ describe('passwords and bcrypt', () => {
   })
 
   describe('an account with a password of exactly 72 bytes (36 two-byte characters)', () => {
-    const password = 'é'.repeat(36)
+    // 36 different two-byte letters in no order, so the strength check passes it
+    const password = 'ðäþçñüòåïéøáýìóæâûàíõêãèôëúîùöāćÿăĉą'
     const email = 'seventy.two@example.test'
     beforeAll(async () => {
       expect(Buffer.byteLength(password)).toBe(72)
@@ -86,7 +87,7 @@ describe('passwords and bcrypt', () => {
 })
 
 describe('mail settings at start-up', () => {
-  const base = () => ({ NODE_ENV: 'production', FLEXSHELF_DATA: makeTempDir(), FLEXSHELF_JWT_SECRET: 's'.repeat(40) })
+  const base = () => ({ NODE_ENV: 'production', FLEXSHELF_DATA: makeTempDir(), FLEXSHELF_JWT_SECRET: 'mU3q-Vt8xPz1RkLw7cYb2NaJ5eHs9gDf0TiOo4' })
   describe('in production', () => {
     it('starts with no mail settings (e-mails stay in the outbox) and with complete ones', () => {
       expect(loadConfig(base()).mail.smtpUrl).toBeNull()

@@ -75,7 +75,7 @@ describe('PATCH /api/users/:id/role', () => {
     it('revokes the tokens issued before the change', async () => {
       const me = await request(t.app).get('/api/auth/me').set(bearer(oldToken))
       expect(me.status).toBe(401)
-      expect(me.body.error.message).toContain('role has changed')
+      expect(me.body.error.message).toContain('role or password has changed')
     })
 
     it('lets the user sign in again with the new role', async () => {

@@ -5,13 +5,14 @@ import { EntryComment } from './entry-comment'
 import { EntryRevision } from './entry-revision'
 import { Material } from './material'
 import { OutboxMessage } from './outbox-message'
+import { PasswordResetToken } from './password-reset-token'
 import { RevokedToken } from './revoked-token'
 import { SavedConfiguration } from './saved-configuration'
 import { TestReport } from './test-report'
 import { User } from './user'
 
 export { AuditEvent, Entry, EntryRevision, Material, RevokedToken, SavedConfiguration, TestReport, User }
-export { EntryComment, OutboxMessage }
+export { EntryComment, OutboxMessage, PasswordResetToken }
 export { COMMENT_KINDS, type CommentKind } from './entry-comment'
 export { OUTBOX_STATUSES, type OutboxStatus } from './outbox-message'
 export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './types'
@@ -34,6 +35,7 @@ export function defineModels(sequelize: Sequelize) {
     RevokedToken: class extends RevokedToken {},
     EntryComment: class extends EntryComment {},
     OutboxMessage: class extends OutboxMessage {},
+    PasswordResetToken: class extends PasswordResetToken {},
   }
   for (const model of Object.values(models)) model.initModel(sequelize)
   const m = models
@@ -55,6 +57,7 @@ export function defineModels(sequelize: Sequelize) {
   m.Entry.belongsTo(m.Entry, { as: 'proposalFor', foreignKey: 'proposalForId' })
   m.Entry.hasMany(m.EntryComment, { as: 'comments', foreignKey: 'entryId' })
   m.EntryComment.belongsTo(m.User, { as: 'author', foreignKey: 'authorId' })
+  m.PasswordResetToken.belongsTo(m.User, { as: 'user', foreignKey: 'userId' })
   return models
 }
 
