@@ -63,6 +63,20 @@ const ROWS: Row[] = [
   },
   { route: 'POST /api/auth/signout', path: () => '/api/auth/signout', freshToken: true, expected: statuses(401, 204, 204, 204, 204) },
   { route: 'GET /api/auth/me', path: () => '/api/auth/me', expected: statuses(401, 200, 200, 200, 200) },
+  { route: 'GET /api/auth/options', path: () => '/api/auth/options', expected: statuses(200, 200, 200, 200, 200) },
+  {
+    // a wrong current password: the gate is passed (400), nothing changes
+    route: 'POST /api/auth/password', path: () => '/api/auth/password', body: () => ({ currentPassword: 'not the password', newPassword: 'walnut glacier tinder 5' }),
+    expected: statuses(401, 400, 400, 400, 400),
+  },
+  {
+    route: 'POST /api/auth/password-reset', path: () => '/api/auth/password-reset', body: () => ({ email: 'no.account@example.test' }),
+    expected: statuses(202, 202, 202, 202, 202),
+  },
+  {
+    route: 'POST /api/auth/password-reset/confirm', path: () => '/api/auth/password-reset/confirm', body: () => ({ token: 'not-a-reset-token', newPassword: 'walnut glacier tinder 5' }),
+    expected: statuses(400, 400, 400, 400, 400),
+  },
   { route: 'GET /api/users', path: () => '/api/users', expected: statuses(401, 403, 403, 403, 200) },
   {
     route: 'PATCH /api/users/:id/role', path: () => `/api/users/${fixture.targetUserId}/role`, body: () => ({ role: 'contributor' }),

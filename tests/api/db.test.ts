@@ -24,7 +24,7 @@ async function pragma(sequelize: Sequelize, name: string, transaction?: Transact
 }
 
 const EXPECTED_TABLES: Record<string, string[]> = {
-  Users: ['id', 'email', 'passwordHash', 'displayName', 'role', 'tokenVersion', 'createdAt', 'updatedAt'],
+  Users: ['id', 'email', 'passwordHash', 'displayName', 'role', 'tokenVersion', 'passwordMustChange', 'carriedSessionJti', 'oidcIssuer', 'oidcSubject', 'createdAt', 'updatedAt'],
   Materials: ['id', 'name', 'process', 'modulus', 'strainLimit', 'density', 'notes', 'source', 'createdAt', 'updatedAt'],
   Entries: ['id', 'familyId', 'name', 'summary', 'tags', 'status', 'defaultParams', 'ranges', 'materials', 'notes', 'ownerId', 'currentRevisionId', 'proposalForId', 'createdAt', 'updatedAt'],
   EntryRevisions: ['id', 'entryId', 'number', 'params', 'ranges', 'method', 'curve', 'metrics', 'warnings', 'createdById', 'createdAt'],
@@ -34,6 +34,7 @@ const EXPECTED_TABLES: Record<string, string[]> = {
   RevokedTokens: ['jti', 'expiresAt'],
   EntryComments: ['id', 'entryId', 'authorId', 'kind', 'text', 'createdAt'],
   OutboxMessages: ['id', 'to', 'subject', 'text', 'transport', 'status', 'error', 'at'],
+  PasswordResetTokens: ['id', 'userId', 'tokenHash', 'expiresAt', 'usedAt', 'createdAt'],
   SequelizeMeta: ['name'],
 }
 
@@ -48,7 +49,7 @@ describe('migrations', () => {
     afterAll(() => sequelize.close())
 
     it('applies every migration in order', () => {
-      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings'])
+      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings', '0004-accounts'])
     })
 
     it('produces exactly the expected tables and columns', async () => {
