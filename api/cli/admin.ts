@@ -12,7 +12,7 @@ import type { AppContext } from '../context'
 import { openDatabase } from '../db'
 import { HttpError } from '../errors'
 import {
-  addUser, generateSecret, listAccounts, removeDemoAccounts, resetPassword, setRole, unlockUser, type PasswordSource,
+  addUser, generateSecret, listAccounts, removeDemoAccounts, resetPassword, setRole, unlockByEmail, type PasswordSource,
 } from '../services/admin-accounts'
 
 const USAGE = `Flexshelf admin commands (npm run --silent admin -- <command> [options]):
@@ -115,8 +115,12 @@ async function run(argv: string[]): Promise<void> {
       return
     }
     case 'unlock': {
-      const user = await withDatabase((c) => unlockUser(c, required(values, 'email')))
-      say(`${user.email} is unlocked.`)
+      const { user, shared } = await withDatabase((c) => unlockByEmail(c, required(values, 'email')))
+      if (shared) say(`${user.email} is unlocked: the sign-in delays are cleared for every address.`)
+      else {
+        say(`Recorded the unlock of ${user.email}, but the sign-in delays live in the running server's memory, which this command cannot reach.`)
+        say('Unlock from People and roles in the web app (POST /api/users/:id/unlock), or restart the server, which forgets them.')
+      }
       return
     }
     case 'reset-password': {

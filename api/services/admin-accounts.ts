@@ -17,7 +17,7 @@ import { parseBody, bodySchema, textField } from '../validation'
 import { recordAudit } from './audit'
 import { emailField, hashPassword } from './auth'
 import { assertStrongPassword, newPasswordField } from './password-policy'
-import { unlockAccount } from './account-unlock'
+import { unlockAccount, type CliUnlock } from './account-unlock'
 
 /** Who ran the command, for the audit log. */
 function operator(): string {
@@ -104,10 +104,9 @@ export async function setRole(context: AppContext, email: string, rawRole: strin
   })
 }
 
-export async function unlockUser(context: AppContext, email: string): Promise<User> {
+export async function unlockByEmail(context: AppContext, email: string): Promise<{ user: User } & CliUnlock> {
   const user = await findByEmail(context, email)
-  await unlockAccount(context, user, { actorId: null, details: viaCli() })
-  return user
+  return { user, ...(await unlockAccount(context, user)) }
 }
 
 export async function resetPassword(context: AppContext, email: string, source: PasswordSource): Promise<{ user: User; oneTimePassword: string | null }> {
