@@ -17,11 +17,12 @@ import { CandidateJudge, type CandidateContext, type CandidateScore } from './ca
 import { estimateAllowance } from './estimate-tolerance'
 import { estimatorFor, exactMethodOf } from './estimators'
 import { explainEmpty, type Tally } from './explain'
-import { marginRank, rankKey, safetyRank } from './rank'
+import { MARGIN_BUCKET, marginRank, rankKey, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
+import { distinctAnswers } from './distinct'
 import { refine } from './refine'
 import { entryGrid, GridCursor, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
-import type { Confirmation, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
+import type { CloseVariant, Confirmation, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
 import { describeResult } from './why'
 
 /** Candidates sampled per entry and material when the options give no budget. */
@@ -162,12 +163,20 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     options.onProgress?.({ done, total: units.length, considered: tally.considered, phase })
 
   const accepted: Scored[] = []
-  // the best `limit` accepted so far over the units done (what bestOf(accepted) would keep)
+  // the best `limit` accepted so far over the units done (what bestOf(accepted) would keep);
+  // with distinct answers every unit's best is listed whatever the others found, so a unit's
+  // candidates are screened against its own list only
+  const distinct = options.distinct !== false
   const best = new BestList(limit)
   for (let u = 0; u < units.length; u++) {
     const unit = units[u]
     const grid = entryGrid(unit.family, unit.entry, rules, budget)
-    if (grid.problem) { tally.unprintable.push(`${unit.entry.name}: ${grid.problem}`); continue }
+    if (grid.problem) {
+      // the same entry in another material is unprintable for the same reason: say it once
+      const line = `${unit.entry.name}: ${grid.problem}`
+      if (!tally.unprintable.includes(line)) tally.unprintable.push(line)
+      continue
+    }
     const ctx = contextOf(unit, window, compiled)
     const judge = new CandidateJudge(ctx, keys)
     const mine = new BestList(limit)
@@ -202,9 +211,9 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     /** Whether the candidate (bounded by the judge) could still enter this unit's list and the answer so far. */
     const couldRank = (params: Record<string, number>) => {
       bands()
-      if (mine.outOnBands(m, sr) || best.outOnBands(m, sr)) return false
+      if (mine.outOnBands(m, sr) || (!distinct && best.outOnBands(m, sr))) return false
       envelope(params)
-      return !(mine.full && mine.place(m, sr, area, volume, judge.windowMargin) >= limit) && !(best.full && best.place(m, sr, area, volume, judge.windowMargin) >= limit)
+      return !(mine.full && mine.place(m, sr, area, volume, judge.windowMargin) >= limit) && !(!distinct && best.full && best.place(m, sr, area, volume, judge.windowMargin) >= limit)
     }
     const seeds: Scored[] = []
     // The judge holds the verdict of `params`; a Scored (records, envelope) is built only for
@@ -234,7 +243,7 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
       // answer (its band only ranks it lower; the reasons and nearest miss only explain an
       // empty answer): it is counted, not banded.
-      if (seeds.length >= REFINE_SEEDS && (mine.full || best.full)) {
+      if (seeds.length >= REFINE_SEEDS && (mine.full || (!distinct && best.full))) {
         const couldBeOk = judge.bound(params)
         if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !couldRank(params))) {
           tally.considered++
@@ -261,7 +270,10 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     yield
   }
 
-  const top = bestOf(accepted, limit)
+  const groups = distinct
+    ? distinctAnswers(bestOf(accepted, accepted.length), limit, (s) => ({ group: `${s.unit.entry.id}|${s.unit.material.id}`, family: s.unit.family, params: s.params }))
+    : bestOf(accepted, limit).map((lead) => ({ lead, tier: 1 as const, variants: [] as Scored[] }))
+  const top = groups.map((g) => g.lead)
   const confirmCount = Math.min(top.length, options.confirm ?? DEFAULT_CONFIRM)
   const results: SearchResult[] = []
   for (let i = 0; i < top.length; i++) {
@@ -286,15 +298,40 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       method: estimatorFor(s.unit.family).method,
       confirmed,
       why: describeResult(i + 1, window, band, s.score, env, s.unit.material, confirmed),
+      ...(distinct ? { rank: rankKeyOf(s, groups[i].tier), closeVariants: groups[i].variants.map(variantOf) } : {}),
     })
   }
   progress(units.length, 'done')
   const elapsedMs = now() - started
   const tol = resolveTolerance(window.tolerance)
   const explanation = results.length
-    ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
+    ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${distinct ? ` The best design of each entry and material is listed first, then further designs that differ by more than a step and 3 % in some parameter; ${foldedText(groups)}` : ''}${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
     : explainEmpty(window, compiled, tally, rules)
   return { results, considered: tally.considered, elapsedMs, explanation }
+}
+
+/** The sort key as applied, in readable numbers (rank.ts's bands). */
+function rankKeyOf(s: Scored, tier: 1 | 2): RankKey {
+  const r = rankOf(s)
+  const m = -marginRank(r.windowMargin)
+  const sr = -safetyRank(r.safetyFactor)
+  const safetyBand: [number, number] | null = r.safetyFactor === null || r.safetyFactor >= SAFETY_CAP ? null : [sr * SAFETY_BUCKET, (sr + 1) * SAFETY_BUCKET].map((v) => Number(v.toFixed(6))) as [number, number]
+  return {
+    tier,
+    marginBand: [m * MARGIN_BUCKET, (m + 1) * MARGIN_BUCKET].map((v) => Number(v.toFixed(6))) as [number, number],
+    safetyBand,
+    footprint: r.area,
+    volume: r.volume,
+  }
+}
+
+function variantOf(s: Scored): CloseVariant {
+  return { params: { ...s.params, material: s.unit.material.id }, margin: s.score.windowMargin, safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1 }
+}
+
+function foldedText(groups: { variants: Scored[] }[]): string {
+  const folded = groups.reduce((n, g) => n + g.variants.length, 0)
+  return folded ? `${folded} close variant${folded === 1 ? '' : 's'} (within a step or 3 % on every parameter) fold under them.` : 'none of them is a close variant of another.'
 }
 
 /**

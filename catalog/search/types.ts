@@ -53,6 +53,12 @@ export interface SearchOptions {
   budget?: number
   /** Refine around the best candidates with a local search (default true). */
   refine?: boolean
+  /**
+   * Fold close variants under the best of them and list the best design of each entry and
+   * material first (distinct.ts; default true). False gives the plain ranking of every
+   * parameter set, as the engine's regression fixture records it.
+   */
+  distinct?: boolean
   onProgress?: (progress: SearchProgress) => void
   signal?: AbortSignal
 }
@@ -72,6 +78,31 @@ export interface Confirmation {
   error?: string
 }
 
+/**
+ * Where a result stands, in the order the ranking applies: tier (the best design of its entry
+ * and material before further distinct designs), the margin's band (5 % of the window, larger
+ * first), the strain safety's band (0.1, larger first; null counts as ample), then the
+ * smaller footprint and envelope volume.
+ */
+export interface RankKey {
+  tier: 1 | 2
+  /** Lower and upper edge of the margin band, fractions of the window. */
+  marginBand: [number, number]
+  /** Lower and upper edge of the strain-safety band; null: ample (at or above the cap) or no strain. */
+  safetyBand: [number, number] | null
+  /** Envelope area in the build plane, mm². */
+  footprint: number
+  /** Envelope volume, mm³. */
+  volume: number
+}
+
+/** A configuration folded under a listed one (within a step or 3 % on every parameter). */
+export interface CloseVariant {
+  params: Record<string, number | string>
+  margin: number
+  safetyFactor: number | null
+}
+
 export interface SearchResult {
   entryId: string | number
   entryName: string
@@ -87,6 +118,10 @@ export interface SearchResult {
   method: string
   confirmed: Confirmation | null
   why: string
+  /** The sort key, as applied (absent in the plain ranking, `distinct: false`). */
+  rank?: RankKey
+  /** Close variants folded under this result, best first. */
+  closeVariants?: CloseVariant[]
 }
 
 export interface SearchAnswer {
