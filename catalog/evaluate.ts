@@ -2,6 +2,7 @@
  * evaluate: validates a family's parameters, runs its model and checks that every number it
  * returns is finite. Pure: no I/O, deterministic for the same input.
  */
+import { LRUCache } from 'lru-cache'
 import { SolverError, ValidationError } from './errors'
 import { getFamily } from './registry'
 import { validateParams, type ValidateOptions } from './schema/validate'
@@ -55,9 +56,36 @@ export function evaluateFamily(family: FamilyDefinition, rawParams: unknown, opt
   }
 }
 
-/** The family's closed JSCAD solid (geom3) in mm for validated parameters. */
+/**
+ * Solids built lately, by family and validated parameters: a part's STL, 3MF, DXF and SVG,
+ * and the next request for the same part, share one build (JSCAD solids are immutable: every
+ * operation returns a new one). A few dozen parts of a few hundred kilobytes each.
+ */
+const SOLID_CACHE_SIZE = 32
+const solids = new LRUCache<string, { family: FamilyDefinition; solid: unknown }>({ max: SOLID_CACHE_SIZE })
+
+/** The parameters in the family's own order, so that the same part gives the same key. */
+function solidKey(family: FamilyDefinition, params: Record<string, number>): string {
+  return `${family.id}|${family.params.map((p) => params[p.key]).join('|')}`
+}
+
+/**
+ * The family's closed JSCAD solid (geom3) in mm for validated parameters; the one place a
+ * solid is built (cached, see SOLID_CACHE_SIZE).
+ */
 export function buildGeometry(familyId: string, rawParams: unknown): unknown {
   const family = getFamily(familyId)
   const { params } = validateParams(family, rawParams)
-  return family.build(params)
+  const key = solidKey(family, params)
+  const held = solids.get(key)
+  // a family registered again under the same id builds its own solid
+  if (held && held.family === family) return held.solid
+  const solid = family.build(params)
+  solids.set(key, { family, solid })
+  return solid
+}
+
+/** Empties the solid cache (benchmarks time a build from scratch). */
+export function clearSolidCache(): void {
+  solids.clear()
 }

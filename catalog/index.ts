@@ -3,7 +3,7 @@
  * Pure: no I/O, deterministic for the same input.
  */
 export { families, findFamily, getFamily, registerFamily, UnknownFamilyError } from './registry'
-export { evaluate, evaluateFamily, buildGeometry } from './evaluate'
+export { evaluate, evaluateFamily, buildGeometry, clearSolidCache } from './evaluate'
 export type { EvaluateOptions } from './evaluate'
 export * from './schema'
 export * from './errors'

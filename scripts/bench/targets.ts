@@ -14,7 +14,7 @@
  * of this process is shown beside wall time, as the machine is shared. Asserts nothing.
  */
 import { loadavg } from 'node:os'
-import { buildGeometry, families, serializeStl } from '../../catalog/index'
+import { buildGeometry, clearSolidCache, families, serializeStl } from '../../catalog/index'
 import type { FamilyDefinition } from '../../catalog/schema/types'
 import { closedFormMetrics } from '../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../catalog/families/bistable-beam/curve-metrics'
@@ -149,7 +149,11 @@ function shelfRows(entries: number, runs: number): ShelfRow[] {
 
 interface FileRow { family: string; ms: Record<string, number> }
 
-/** Median time of each file of a module at its defaults, from validated parameters to bytes. */
+/**
+ * Median time of each file of a module at its defaults, from validated parameters to bytes:
+ * built from scratch (the solid cache emptied before each), and the same file again with the
+ * solid cached (a second format of the same part, or the same download twice).
+ */
 function buildFiles(list: readonly FamilyDefinition[]): FileRow[] {
   return list.map((family) => {
     const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
@@ -159,9 +163,14 @@ function buildFiles(list: readonly FamilyDefinition[]): FileRow[] {
     const ms: Record<string, number> = {}
     for (const [name, write] of Object.entries(writers)) {
       write()
-      const times: number[] = []
-      for (let i = 0; i < 7; i++) times.push(timed(() => write()).wall)
-      ms[name] = median(times)
+      const fresh: number[] = [], cached: number[] = []
+      for (let i = 0; i < 7; i++) {
+        clearSolidCache()
+        fresh.push(timed(() => write()).wall)
+        cached.push(timed(() => write()).wall)
+      }
+      ms[name] = median(fresh)
+      ms[`${name} cached`] = median(cached)
     }
     return { family: family.id, ms }
   })
@@ -195,8 +204,8 @@ export function format(r: ReturnType<typeof run>): string {
   }
   lines.push('', 'files of a module at its defaults, built from scratch (the cache emptied), median ms')
   const formats = Object.keys(r.files[0]?.ms ?? {})
-  lines.push(`family              ${formats.map((k) => k.padStart(8)).join('')}`)
-  for (const row of r.files) lines.push(`${row.family.padEnd(19)} ${formats.map((k) => f(row.ms[k]).padStart(8)).join('')}`)
+  lines.push(`family              ${formats.map((k) => k.padStart(12)).join('')}`)
+  for (const row of r.files) lines.push(`${row.family.padEnd(19)} ${formats.map((k) => f(row.ms[k]).padStart(12)).join('')}`)
 
   // rates and the curve comparison on CPU time: the machine is shared, and both sides are timed alike
   const rate = (rows: ShelfRow[]) => rows.reduce((n, s) => n + s.considered, 0) / (rows.reduce((t, s) => t + s.medianCpuMs, 0) / 1000)
@@ -204,14 +213,14 @@ export function format(r: ReturnType<typeof run>): string {
   const plainCurve = median(r.curves.map((c) => c.plainCpuMs))
   const worst = (rows: ShelfRow[], cpu = false) => Math.max(...rows.map((s) => (cpu ? s.medianCpuMs : s.medianMs)))
   const worstCurveRatio = Math.max(...r.curves.map((c) => c.ratio))
-  const slowestFile = Math.max(...r.files.flatMap((row) => Object.values(row.ms)))
+  const slowestFile = Math.max(...r.files.flatMap((row) => Object.entries(row.ms).filter(([k]) => !k.endsWith('cached')).map(([, v]) => v)))
   const mark = (ok: boolean) => (ok ? 'met' : 'NOT met')
   lines.push('', 'targets (issue 17), each against its reference timed above:')
   lines.push(`  search estimates ${e(searchRate)} per CPU second over the 200- and 2,000-entry runs vs the closed-form loop ${e(r.closedForm)}: 1/${f(r.closedForm / searchRate, 1)} (at least 1/20): ${mark(searchRate * 20 >= r.closedForm)}`)
   lines.push(`  200-entry shelf slowest ${f(worst(r.two, true), 0)} ms CPU = ${f(worst(r.two, true) / plainCurve, 1)} plain reference curves of ${f(plainCurve, 1)} ms CPU (at most 30): ${mark(worst(r.two, true) <= 30 * plainCurve)}`)
   lines.push(`  2,000-entry shelf slowest ${f(worst(r.twoThousand), 0)} ms wall, ${f(worst(r.twoThousand, true), 0)} ms CPU (under 1000 wall): ${mark(worst(r.twoThousand) < 1000)}`)
   lines.push(`  exact bistable curve / plain reference, CPU time, worst case ${f(worstCurveRatio, 2)} (at most 1): ${mark(worstCurveRatio <= 1)}`)
-  lines.push(`  slowest file ${f(slowestFile, 1)} ms (under 30): ${mark(slowestFile < 30)}`)
+  lines.push(`  slowest file built from scratch ${f(slowestFile, 1)} ms wall (under 30): ${mark(slowestFile < 30)}`)
   return lines.join('\n')
 }
 
