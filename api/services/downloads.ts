@@ -5,6 +5,7 @@
 import Papa from 'papaparse'
 import { PART_FORMATS, validateParams, type PartFormat } from '../../catalog'
 import { compute } from './compute-pool'
+import { FORMULA_START } from './csv-safety'
 import type { ConfigurationInput } from './configuration-input'
 import type { ToleranceBand } from '../../catalog/tolerance'
 import { askedOf, evaluateTarget, type ConfigureTarget } from './configure'
@@ -69,7 +70,8 @@ function column(label: string, unit: string): string {
  * The predicted curve, one row per point: displacement and force named with their units
  * from curve.axes, the strain when the method reports it, and the force at the tolerance
  * band's low and high side when a tolerance is given. Text cells that a spreadsheet would
- * run as a formula (= + - @ tab CR) get a leading apostrophe (papaparse escapeFormulae).
+ * run as a formula (= + - @ tab CR and the full-width forms, csv-safety.ts) get a leading
+ * apostrophe (papaparse escapeFormulae; numbers are written as numbers and never escaped).
  */
 export async function curveCsvFile(target: ConfigureTarget, input: ConfigurationInput): Promise<DownloadFile> {
   return curveCsvOf(target, input, await evaluateTarget(target, input, 'the curve CSV'))
@@ -93,7 +95,7 @@ export function curveCsvOf(target: ConfigureTarget, input: ConfigurationInput, b
     if (withBand) row.push(significant(band.curve.low[i]), significant(band.curve.high[i]))
     return row
   })
-  const csv = Papa.unparse({ fields, data: rows }, { escapeFormulae: true, newline: '\r\n' })
+  const csv = Papa.unparse({ fields, data: rows }, { escapeFormulae: FORMULA_START, newline: '\r\n' })
   return {
     fileName: downloadFileName(target.entry.name, target.family, band.nominal.params, 'csv', 'curve'),
     contentType: 'text/csv; charset=utf-8',

