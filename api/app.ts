@@ -6,6 +6,7 @@
 import express, { type Express } from 'express'
 import type { AppContext } from './context'
 import { authenticate } from './middleware/authenticate'
+import { bodyDepth } from './middleware/body-depth'
 import { errorHandler } from './middleware/error-handler'
 import { notFound } from './middleware/not-found'
 import { securityHeaders } from './middleware/security-headers'
@@ -26,6 +27,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
 
   const api = express.Router()
   api.use(express.json({ limit: context.config.bodyLimit }))
+  api.use(bodyDepth())
   api.use(authenticate(context))
   for (const { path, router } of apiRouters(context)) api.use(path, router)
   api.use(notFound)

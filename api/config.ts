@@ -132,7 +132,7 @@ function resolveJwtSecret(env: NodeJS.ProcessEnv, dataDir: string, production: b
   try {
     return readFileSync(file, 'utf8').trim()
   } catch {
-    mkdirSync(dataDir, { recursive: true })
+    mkdirSync(dataDir, { recursive: true, mode: 0o700 })
     const secret = randomBytes(48).toString('base64url')
     try {
       // 'wx': if another process wrote it first, read theirs instead

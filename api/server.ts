@@ -2,13 +2,13 @@
  * The server entry: configuration from the environment, open and migrate the database,
  * seed the demo data (not in production), listen.
  */
-import { mkdirSync } from 'node:fs'
 import { createApp } from './app'
 import { ConfigError, loadConfig } from './config'
 import { openDatabase } from './db'
 import { seedBuiltinMaterials, seedDemoData } from './db/seed'
 import { demoAccountsWithPassword } from './services/admin-accounts'
 import { configureComputePool } from './services/compute-pool'
+import { secureDataFolder } from './services/data-folder'
 
 /** A production server must not run with accounts whose password is printed in the README. */
 async function refuseDemoAccounts(context: { config: ReturnType<typeof loadConfig>; db: Awaited<ReturnType<typeof openDatabase>> }): Promise<void> {
@@ -23,9 +23,13 @@ async function refuseDemoAccounts(context: { config: ReturnType<typeof loadConfi
 }
 
 async function main(): Promise<void> {
+  // everything the server creates from here on is private to its user (0600 files, 0700 folders)
+  process.umask(0o077)
   const config = loadConfig()
-  mkdirSync(config.uploadsDir, { recursive: true })
+  secureDataFolder(config)
   const db = await openDatabase(config.databaseUrl ?? config.databaseFile)
+  // a database created just now: SQLite honours the umask, this covers an older 0644 one too
+  secureDataFolder(config)
   const context = { config, db }
 
   if (config.seedDemo) {

@@ -80,7 +80,7 @@ function openPostgres(url: string, options: PostgresOptions): Sequelize {
 export function openSequelize(target: string, options: PostgresOptions = {}): Sequelize {
   if (isPostgresUrl(target)) return openPostgres(target, options)
   const databaseFile = target
-  mkdirSync(dirname(databaseFile), { recursive: true })
+  mkdirSync(dirname(databaseFile), { recursive: true, mode: 0o700 })
   const sequelize = new Sequelize({
     dialect: 'sqlite',
     storage: databaseFile,

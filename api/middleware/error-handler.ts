@@ -8,6 +8,9 @@ interface BodyParserError extends Error {
   type?: string
   status?: number
   limit?: number
+  /** zlib's code of a broken compressed body (Z_DATA_ERROR, ERR_BROTLI_…, ERR__ERROR_FORMAT_…). */
+  code?: string
+  expose?: boolean
 }
 
 export function toHttpError(err: unknown): HttpError {
@@ -34,6 +37,10 @@ export function toHttpError(err: unknown): HttpError {
   }
   if (parserError?.type === 'encoding.unsupported' || parserError?.type === 'charset.unsupported') {
     return new HttpError(415, 'unsupported_media_type', parserError.message, null)
+  }
+  // a body that claims gzip, deflate or brotli but does not decompress: the client's fault
+  if (parserError?.status === 400 && parserError.expose && typeof parserError.code === 'string') {
+    return new HttpError(400, 'malformed_body', `the request body could not be decompressed as its Content-Encoding says (${parserError.message})`, null)
   }
   return new HttpError(500, 'internal', 'something went wrong on the server; the error has been logged', null)
 }

@@ -11,7 +11,15 @@
  * ask browsers to upgrade requests to HTTPS (that would break every asset there).
  */
 import helmet from 'helmet'
-import type { RequestHandler } from 'express'
+import type { NextFunction, Request, RequestHandler, Response } from 'express'
+
+/**
+ * HSTS only on an answer to a request that came over TLS, directly or through the trusted
+ * proxy (X-Forwarded-Proto from loopback, app.ts): sent over plain HTTP it means nothing to
+ * a browser, and on a company network it would pin a host name to HTTPS that does not have it.
+ * One year with subdomains, helmet's default value.
+ */
+export const HSTS_VALUE = 'max-age=31536000; includeSubDomains'
 
 export const CONTENT_SECURITY_POLICY: Record<string, string[]> = {
   'default-src': ["'self'"],
@@ -28,12 +36,17 @@ export const CONTENT_SECURITY_POLICY: Record<string, string[]> = {
 }
 
 export function securityHeaders(): RequestHandler {
-  return helmet({
+  const headers = helmet({
     contentSecurityPolicy: {
       useDefaults: false,
       directives: CONTENT_SECURITY_POLICY,
     },
     // links out of the app do not carry its paths (entry ids, share tokens) to other sites
     referrerPolicy: { policy: 'same-origin' },
+    strictTransportSecurity: false,
   })
+  return function securityHeadersWithHsts(req: Request, res: Response, next: NextFunction) {
+    if (req.secure) res.setHeader('Strict-Transport-Security', HSTS_VALUE)
+    headers(req, res, next)
+  }
 }

@@ -8,16 +8,15 @@ import { z } from 'zod'
 import { families, validateParams, ValidationError, type FamilyDefinition } from '../../catalog'
 import type { ParamRanges, ParamValues } from '../db'
 import { validationFailed, type FieldIssue } from '../errors'
-import { bodySchema, parseBody, textField } from '../validation'
+import { bodySchema, optionalTextField, parseBody, plainText, textField } from '../validation'
 import type { MaterialView } from './materials'
 
-const optionalText = (field: string, max: number) =>
-  z.string({ error: `${field} must be text` }).trim().max(max, `${field} must be at most ${max} characters`)
+const optionalText = (field: string, max: number) => optionalTextField(field, max, { multiline: true })
 
 const fields = {
   name: textField('name', 120),
   summary: optionalText('summary', 2000),
-  tags: z.array(z.string({ error: 'each tag must be text' }).trim().min(1, 'a tag must not be empty').max(40, 'a tag must be at most 40 characters'), { error: 'tags must be a list of words' })
+  tags: z.array(plainText(z.string({ error: 'each tag must be text' }).trim().min(1, 'a tag must not be empty').max(40, 'a tag must be at most 40 characters'), 'a tag'), { error: 'tags must be a list of words' })
     .max(20, 'at most 20 tags'),
   defaultParams: z.record(z.string(), z.unknown(), { error: 'defaultParams must be a JSON object of parameter values' }),
   ranges: z.record(z.string(), z.unknown(), { error: 'ranges must be a JSON object: { "<param>": [min, max] }' }),

@@ -48,8 +48,9 @@ export class LocalFileStore implements FileStore {
 
   async put(key: string, body: Buffer): Promise<void> {
     const full = this.pathOf(key)
-    await mkdir(resolve(full, '..'), { recursive: true })
-    await writeFile(full, body, { flag: 'wx', mode: 0o640 })
+    // private to the server's user, like the database (data-folder.ts)
+    await mkdir(resolve(full, '..'), { recursive: true, mode: 0o700 })
+    await writeFile(full, body, { flag: 'wx', mode: 0o600 })
   }
 
   async read(key: string): Promise<Buffer | null> {

@@ -14,7 +14,7 @@ import { calibrationSummary, families } from '../../catalog'
 import type { AppContext } from '../context'
 import type { Entry, TestReport, User } from '../db'
 import { conflict, HttpError, notFound, validationFailed } from '../errors'
-import { bodySchema, parseBody } from '../validation'
+import { bodySchema, optionalTextField, parseBody, textField, type TextRules } from '../validation'
 import { recordAudit } from './audit'
 import { reportsVisibleTo, showEntry, visibleTo } from './entries'
 import { listMaterials } from './materials'
@@ -30,12 +30,9 @@ export interface UploadedFile {
   buffer: Buffer
 }
 
-const optionalText = (field: string, max: number) =>
-  z.string({ error: `${field} must be text` }).trim().max(max, `${field} must be at most ${max} characters`).optional()
+const optionalText = (field: string, max: number, rules: TextRules = {}) => optionalTextField(field, max, rules).optional()
 
-const requiredText = (field: string, max: number) =>
-  z.string({ error: (iss) => (iss.input === undefined ? `${field} is required` : `${field} must be text`) }).trim()
-    .min(1, `${field} must not be empty`).max(max, `${field} must be at most ${max} characters`)
+const requiredText = (field: string, max: number) => textField(field, max)
 
 const reportFields = bodySchema({
   revisionId: z.string({ error: 'revisionId must be a revision id' }).regex(/^\d{1,15}$/, 'revisionId must be a revision id (a whole number)').optional(),
@@ -46,7 +43,7 @@ const reportFields = bodySchema({
   testSpeed: z.string({ error: 'testSpeed must be a number of mm/min' }).trim()
     .refine((v) => v === '' || (/^\d*\.?\d+([eE][+-]?\d+)?$/.test(v) && Number(v) > 0 && Number(v) <= 10000), 'testSpeed must be a positive number of mm/min, at most 10000')
     .optional(),
-  notes: optionalText('notes', 5000),
+  notes: optionalText('notes', 5000, { multiline: true }),
   displacementColumn: optionalText('displacementColumn', 120),
   forceColumn: optionalText('forceColumn', 120),
   displacementUnit: z.enum(DISPLACEMENT_UNITS, { error: `displacementUnit must be one of ${DISPLACEMENT_UNITS.join(', ')}` }).optional(),
@@ -187,7 +184,7 @@ export function parseReportId(raw: string): number {
   return id
 }
 
-const reviewBody = bodySchema({ note: z.string({ error: 'note must be text' }).trim().max(5000, 'note must be at most 5000 characters').optional() })
+const reviewBody = bodySchema({ note: optionalTextField('note', 5000, { multiline: true }).optional() })
 
 /** POST /api/reports/:id/accept and /reject */
 export async function reviewReport(context: AppContext, actor: User, reportId: number, decision: 'accepted' | 'rejected', body: unknown) {
@@ -258,7 +255,7 @@ export async function entryCalibration(context: AppContext, viewer: User, entryI
 }
 
 const adoptBody = bodySchema({
-  name: z.string({ error: 'name must be text' }).trim().min(1, 'name must not be empty').max(120, 'name must be at most 120 characters').optional(),
+  name: textField('name', 120).optional(),
 })
 
 const sig = (v: number) => Number(v.toPrecision(4))

@@ -82,6 +82,7 @@ const ROWS: Row[] = [
     route: 'PATCH /api/users/:id/role', path: () => `/api/users/${fixture.targetUserId}/role`, body: () => ({ role: 'contributor' }),
     expected: statuses(401, 403, 403, 403, 200),
   },
+  { route: 'POST /api/users/:id/unlock', path: () => `/api/users/${fixture.targetUserId}/unlock`, expected: statuses(401, 403, 403, 403, 200) },
   { route: 'GET /api/families', path: () => '/api/families', expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/families/:id', path: () => `/api/families/${families[0].id}`, expected: statuses(401, 200, 200, 200, 200) },
   {

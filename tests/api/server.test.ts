@@ -1,6 +1,6 @@
 /** The server entry as a real process: configuration, migration, seed, listen, print the URL. */
 import { spawn, type ChildProcess } from 'node:child_process'
-import { rmSync } from 'node:fs'
+import { chmodSync, mkdirSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { makeTempDir } from './helpers'
@@ -15,8 +15,7 @@ afterAll(() => {
   for (const dir of dirs) rmSync(dir, { recursive: true, force: true })
 })
 
-function runServer(env: Record<string, string>): { child: ChildProcess; output: () => string; exited: Promise<number | null> } {
-  const dataDir = makeTempDir()
+function runServer(env: Record<string, string>, dataDir = makeTempDir()): { child: ChildProcess; output: () => string; exited: Promise<number | null> } {
   dirs.push(dataDir)
   const child = spawn(tsx, ['api/server.ts'], {
     cwd: root,
@@ -49,6 +48,28 @@ describe('api/server.ts', () => {
       const health = await fetch(`http://127.0.0.1:${port}/api/health`)
       expect(health.status).toBe(200)
       expect(await health.json()).toMatchObject({ status: 'ok', database: 'ok' })
+      server.child.kill('SIGTERM')
+      expect(await server.exited).toBe(0)
+    })
+
+    it('keeps the data folder private: folders 0700, database and uploads 0600, also for a folder an older version left open (issue 11)', async () => {
+      // as an older version left it: 0755 folders, a 0644 upload
+      const dataDir = makeTempDir()
+      mkdirSync(join(dataDir, 'uploads', 'reports'), { recursive: true })
+      writeFileSync(join(dataDir, 'uploads', 'reports', 'old.csv'), 'd,f\n0,0\n')
+      chmodSync(dataDir, 0o755)
+      chmodSync(join(dataDir, 'uploads'), 0o755)
+      chmodSync(join(dataDir, 'uploads', 'reports', 'old.csv'), 0o644)
+      const server = runServer({ PORT: '0' }, dataDir)
+      await waitFor(() => /Flexshelf is running at/.test(server.output()), 30_000)
+      const mode = (path: string) => (statSync(join(dataDir, path)).mode & 0o777).toString(8)
+      expect(mode('.')).toBe('700')
+      expect(mode('uploads')).toBe('700')
+      expect(mode('uploads/reports')).toBe('700')
+      expect(mode('uploads/reports/old.csv')).toBe('600')
+      expect(mode('flexshelf.sqlite')).toBe('600')
+      expect(mode('flexshelf.sqlite-wal')).toBe('600')
+      expect(mode('jwt-secret')).toBe('600')
       server.child.kill('SIGTERM')
       expect(await server.exited).toBe(0)
     })

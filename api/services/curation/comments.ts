@@ -5,7 +5,7 @@ import { bodySchema, parseBody, textField } from '../../validation'
 import { recordAudit } from '../audit'
 import { loadVisible } from './access'
 
-const commentBody = bodySchema({ text: textField('text', 5000) })
+const commentBody = bodySchema({ text: textField('text', 5000, { multiline: true }) })
 
 export async function addComment(context: AppContext, actor: User, entryId: number, body: unknown) {
   const { text } = parseBody(commentBody, body)

@@ -11,12 +11,11 @@
  * next revision of the entry it proposes for, and the proposal itself is marked merged.
  */
 import type { Transaction } from 'sequelize'
-import { z } from 'zod'
 import { evaluate, type Evaluation } from '../../../catalog'
 import type { AppContext } from '../../context'
 import type { Entry, EntryStatus, User } from '../../db'
 import { conflict, forbidden, notFound } from '../../errors'
-import { bodySchema, parseBody, textField } from '../../validation'
+import { bodySchema, optionalTextField, parseBody, textField } from '../../validation'
 import { recordAudit } from '../audit'
 import { showEntry } from '../entries'
 import { listMaterials } from '../materials'
@@ -41,9 +40,9 @@ function illegal(entry: Entry, action: Action): never {
 }
 
 
-const rejectBody = bodySchema({ reason: textField('reason', 5000) })
-const requestChangesBody = bodySchema({ comment: textField('comment', 5000) })
-const retireBody = bodySchema({ reason: z.string({ error: 'reason must be text' }).trim().max(5000, 'reason must be at most 5000 characters').optional() })
+const rejectBody = bodySchema({ reason: textField('reason', 5000, { multiline: true }) })
+const requestChangesBody = bodySchema({ comment: textField('comment', 5000, { multiline: true }) })
+const retireBody = bodySchema({ reason: optionalTextField('reason', 5000, { multiline: true }).optional() })
 const emptyBody = bodySchema({})
 
 /** The evaluation a release stores: the entry's defaults, its ranges, the curated materials, the family's default method. */
