@@ -5,6 +5,7 @@ import { HttpError } from '../errors'
 import { currentAuth } from '../middleware/authenticate'
 import { allow, allowAnyone } from '../middleware/require-role'
 import { signIn, signOut, signUp } from '../services/auth'
+import { countSigninFailure } from '../services/metrics'
 import { guardStores, normalizeEmail, signinGuard } from '../services/signin-guard'
 import { toUserView } from '../services/users'
 
@@ -55,7 +56,14 @@ export function authRouter(context: AppContext): Router {
     const email = normalizeEmail(req.body?.email)
     const address = clientAddress(req)
     // refused before any password is hashed: a delayed address costs nothing
-    if (email) await guard.assertAllowed(email, address)
+    if (email) {
+      try {
+        await guard.assertAllowed(email, address)
+      } catch (err) {
+        countSigninFailure('rate_limited')
+        throw err
+      }
+    }
     try {
       const session = await signIn(context, req.body)
       if (email) await guard.succeeded(email, address)

@@ -11,6 +11,7 @@ import { familiesRouter } from './families'
 import { healthRouter } from './health'
 import { materialsRouter } from './materials'
 import { outboxRouter } from './outbox'
+import { readyRouter } from './ready'
 import { entryReportsRouter, reportsRouter } from './reports'
 import { reviewQueueRouter } from './review-queue'
 import { searchesRouter, searchRouter } from './search'
@@ -21,6 +22,7 @@ import { usersRouter } from './users'
 export function apiRouters(context: AppContext): Array<{ path: string; router: Router }> {
   return [
     { path: '/health', router: healthRouter(context) },
+    { path: '/ready', router: readyRouter(context) },
     { path: '/auth', router: authRouter(context) },
     { path: '/auth', router: accountRouter(context) },
     { path: '/users', router: usersRouter(context) },

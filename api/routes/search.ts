@@ -2,6 +2,7 @@ import { Router, type Request, type Response } from 'express'
 import type { AppContext } from '../context'
 import { currentAuth } from '../middleware/authenticate'
 import { allow } from '../middleware/require-role'
+import { countSearch } from '../services/metrics'
 import { searchService, type JobEvent } from '../services/search'
 
 /** Comment lines keep idle event streams open through proxies, ms. */
@@ -16,6 +17,7 @@ export function searchRouter(context: AppContext): Router {
     const leaving = new AbortController()
     res.on('close', () => { if (!res.writableFinished) leaving.abort() })
     const { answer, cached } = await service.search(currentAuth(req).user.id, req.body, leaving.signal)
+    countSearch('direct', cached)
     res.set('Flexshelf-Cache', cached ? 'hit' : 'miss').json(answer)
   }
 
@@ -30,6 +32,7 @@ export function searchesRouter(context: AppContext): Router {
 
   async function start(req: Request, res: Response) {
     const job = await service.start(currentAuth(req).user.id, req.body)
+    countSearch('job', job.cached)
     res.status(202).json({ id: job.id, status: job.status, cached: job.cached })
   }
 

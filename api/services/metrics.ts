@@ -8,7 +8,7 @@
 import { collectDefaultMetrics, Counter, Gauge, Histogram, Registry } from 'prom-client'
 
 export const metricsRegistry = new Registry()
-collectDefaultMetrics({ register: metricsRegistry, prefix: 'flexshelf_process_' })
+collectDefaultMetrics({ register: metricsRegistry, prefix: 'flexshelf_' })
 
 export const httpRequestDuration = new Histogram({
   name: 'flexshelf_http_request_duration_seconds',

@@ -51,6 +51,7 @@ const SIGNIN_ACCOUNT = { email: 'table.signin@example.test', password: 'table pa
 
 const ROWS: Row[] = [
   { route: 'GET /api/health', path: () => '/api/health', expected: statuses(200, 200, 200, 200, 200) },
+  { route: 'GET /api/ready', path: () => '/api/ready', expected: statuses(200, 200, 200, 200, 200) },
   {
     route: 'POST /api/auth/signup', path: () => '/api/auth/signup',
     body: () => ({ email: `table.account.${++accounts}@example.test`, password: 'a good long password', displayName: 'Table Account' }),

@@ -47,6 +47,8 @@ export function testConfig(dataDir: string, overrides: Partial<Config> = {}): Co
     signupRateLimit: { windowMs: 60 * 60 * 1000, limit: 10_000 },
     // tests mount the app without the web build unless they ask for one
     webDir: join(dataDir, 'no-web-build'),
+    // request logs would drown the test output; tests that read them pass a logger
+    logLevel: 'silent',
     ...overrides,
   })
 }
