@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 import { estimateAllowance } from './tolerance'
 
 export { estimateBistable, type BistableEstimateParams } from './estimate'
@@ -13,6 +14,7 @@ export const bistableBeam = defineFamily({
   kind: 'bistable',
   summary: 'Two cosine-shaped beams joined by a shuttle at mid-span: pushed past the apex they snap through and hold a second position, for push switches and toggles.',
   defaultMethod: 'nonlinear-fe',
+  search: { estimator },
   tolerance: { estimateAllowance },
   designMap: { sweep: ['apexHeight', 'thickness'] },
   cautions: [

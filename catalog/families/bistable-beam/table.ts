@@ -22,15 +22,54 @@ export function tableCoordinates(span: number, apexHeight: number, thickness: nu
 const cell = new Int32Array(3)
 const frac = new Float64Array(3)
 
-/** Finds the cell of v on axis k (binary search); false outside the axis. */
-function locate(axis: Float64Array, v: number, k: number): boolean {
+/**
+ * Per table: the spacing of each axis where it is even (NaN where not), so that a cell is
+ * found by one division and a check of its two ends instead of a binary search, and the
+ * strides of the node-major values. Made once per table.
+ */
+interface Lookup { qStep: number; etaStep: number; wStep: number; strideQ: number; strideEta: number }
+const lookups = new WeakMap<BistableTable, Lookup>()
+
+function evenStep(axis: Float64Array): number {
+  if (axis.length < 2) return NaN
+  const step = (axis[axis.length - 1] - axis[0]) / (axis.length - 1)
+  for (let i = 1; i < axis.length; i++) if (Math.abs(axis[i] - axis[i - 1] - step) > 1e-9 * Math.abs(step)) return NaN
+  return step
+}
+
+function lookupOf(t: BistableTable): Lookup {
+  let l = lookups.get(t)
+  if (!l) {
+    l = { qStep: evenStep(t.q), etaStep: evenStep(t.logEta), wStep: evenStep(t.w), strideQ: t.logEta.length * t.w.length * METRICS, strideEta: t.w.length * METRICS }
+    lookups.set(t, l)
+  }
+  return l
+}
+
+/**
+ * Finds the cell of v on axis k — the last node at or below v, at most the last but one —
+ * false outside the axis. On an evenly spaced axis (step not NaN) the guess from the step is
+ * moved to that node by comparing with the nodes themselves, so the cell is the one a binary
+ * search finds, to the bit.
+ */
+function locate(axis: Float64Array, v: number, k: number, step = NaN): boolean {
   const n = axis.length
   if (!(v >= axis[0] - 1e-12 && v <= axis[n - 1] + 1e-12)) return false
-  let lo = 0, hi = n - 1
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1
-    if (v >= axis[mid]) lo = mid
-    else hi = mid
+  let lo: number
+  if (step === step) {
+    lo = Math.floor((v - axis[0]) / step)
+    if (lo < 0) lo = 0
+    else if (lo > n - 2) lo = n - 2
+    while (lo > 0 && v < axis[lo]) lo--
+    while (lo < n - 2 && v >= axis[lo + 1]) lo++
+  } else {
+    lo = 0
+    let hi = n - 1
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1
+      if (v >= axis[mid]) lo = mid
+      else hi = mid
+    }
   }
   const t = (v - axis[lo]) / (axis[lo + 1] - axis[lo])
   cell[k] = lo
@@ -66,8 +105,10 @@ const acc = new Float64Array(METRICS)
  */
 export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = bistableTable()): boolean {
   const t = table
-  if (!(eta > 0) || !locate(t.q, q, 0) || !locate(t.logEta, Math.log(eta), 1) || !locate(t.w, w, 2)) return false
-  const nq = t.q.length, ne = t.logEta.length, nw = t.w.length
+  const look = lookupOf(t)
+  if (!(eta > 0) || !locate(t.q, q, 0, look.qStep) || !locate(t.logEta, Math.log(eta), 1, look.etaStep) || !locate(t.w, w, 2, look.wStep)) return false
+  const nq = t.q.length, ne = t.logEta.length
+  const strideQ = look.strideQ, strideEta = look.strideEta
   const iq = cell[0], ie = cell[1], iw = cell[2], fw = frac[2]
   cubicWeights(iq, nq, frac[0], wq, 0)
   cubicWeights(ie, ne, frac[1], we, 0)
@@ -80,7 +121,7 @@ export function interpolateTable(q: number, eta: number, w: number, out: Float64
     for (let b = 0; b < 4; b++) {
       const wab = wa * we[b]
       if (wab === 0) continue
-      const base = ((jq * ne + ie - 1 + b) * nw + iw) * METRICS
+      const base = jq * strideQ + (ie - 1 + b) * strideEta + iw * METRICS
       const w0 = wab * (1 - fw), w1 = wab * fw
       // a zero weight must not multiply a node that was not computed (NaN)
       if (w1 === 0) for (let m = 0; m < METRICS; m++) acc[m] += w0 * v[base + m]
@@ -99,7 +140,7 @@ export function interpolateTable(q: number, eta: number, w: number, out: Float64
   for (let m = 0; m < METRICS; m++) acc[m] = 0
   for (let a = 0; a < 2; a++) for (let b = 0; b < 2; b++) {
     const wab = (a ? fq : 1 - fq) * (b ? fe : 1 - fe)
-    const base = (((iq + a) * ne + ie + b) * nw + iw) * METRICS
+    const base = (iq + a) * strideQ + (ie + b) * strideEta + iw * METRICS
     if (wab === 0) continue
     for (let m = 0; m < METRICS; m++) acc[m] += wab * (fw === 1 ? v[base + METRICS + m] : fw === 0 ? v[base + m] : (1 - fw) * v[base + m] + fw * v[base + METRICS + m])
   }
@@ -114,6 +155,37 @@ const slot = Object.fromEntries(TABLE_METRICS.map((k, i) => [k, i])) as Record<(
 const scratch = new Float64Array(METRICS)
 
 /**
+ * estimateFromTable on raw numbers, for search: writes into `out` in the slot order
+ * peakForce, valleyForce, unstablePosition, secondStablePosition, energyIn, energyBarrier,
+ * bistable (1/0), maxStrain, strainLimit, safetyFactor — NaN for an empty metric — and
+ * returns false outside the table. No object per call; the same arithmetic as the record form
+ * (which is built on it), so the two agree to the bit.
+ */
+export function fillFromTable(table: BistableTable, span: number, h: number, thickness: number, depth: number, postLength: number, modulus: number, strainLimit: number, out: Float64Array): boolean {
+  const slenderness = span / thickness
+  if (!interpolateTable(h / thickness, h / span, (postLength / span) * Math.cbrt(slenderness * slenderness), scratch, table)) return false
+  const scale = (2 * modulus * ((depth * thickness ** 3) / 12) * h) / span ** 3
+  const valley = scratch[slot.valley] * scale
+  const bistable = valley < 0
+  const reachesSecond = bistable && scratch[slot.secondAt] < 2 - 1e-9
+  const maxStrain = scratch[slot.strain] * ((thickness * h) / span ** 2)
+  out[0] = scratch[slot.peak] * scale
+  out[1] = valley
+  out[2] = bistable ? scratch[slot.unstableAt] * h : NaN
+  out[3] = reachesSecond ? scratch[slot.secondAt] * h : NaN
+  out[4] = bistable ? scratch[slot.workIn] * scale * h : NaN
+  out[5] = reachesSecond ? scratch[slot.barrier] * scale * h : NaN
+  out[6] = bistable ? 1 : 0
+  out[7] = maxStrain
+  out[8] = strainLimit
+  out[9] = strainLimit / maxStrain
+  return true
+}
+
+const slots = new Float64Array(10)
+const orNull = (v: number) => (Number.isNaN(v) ? null : v)
+
+/**
  * The family's metrics (keys and units of the nonlinear-fe evaluation) from `table`, or null
  * outside it. Monostable parts get no unstable position or energies, as the model reports them.
  */
@@ -122,24 +194,17 @@ export function estimateFromTable(
   p: { span: number; apexHeight: number; thickness: number; depth: number; postLength: number },
   material: { modulus: number; strainLimit: number },
 ): Record<string, MetricValue> | null {
-  const c = tableCoordinates(p.span, p.apexHeight, p.thickness, p.postLength)
-  if (!interpolateTable(c.q, c.eta, c.w, scratch, table)) return null
-  const scale = (2 * material.modulus * ((p.depth * p.thickness ** 3) / 12) * p.apexHeight) / p.span ** 3
-  const h = p.apexHeight
-  const valley = scratch[slot.valley] * scale
-  const bistable = valley < 0
-  const reachesSecond = bistable && scratch[slot.secondAt] < 2 - 1e-9
-  const maxStrain = scratch[slot.strain] * ((p.thickness * h) / p.span ** 2)
+  if (!fillFromTable(table, p.span, p.apexHeight, p.thickness, p.depth, p.postLength, material.modulus, material.strainLimit, slots)) return null
   return {
-    peakForce: scratch[slot.peak] * scale,
-    valleyForce: valley,
-    unstablePosition: bistable ? scratch[slot.unstableAt] * h : null,
-    secondStablePosition: reachesSecond ? scratch[slot.secondAt] * h : null,
-    energyIn: bistable ? scratch[slot.workIn] * scale * h : null,
-    energyBarrier: reachesSecond ? scratch[slot.barrier] * scale * h : null,
-    bistable,
-    maxStrain,
-    strainLimit: material.strainLimit,
-    safetyFactor: material.strainLimit / maxStrain,
+    peakForce: slots[0],
+    valleyForce: slots[1],
+    unstablePosition: orNull(slots[2]),
+    secondStablePosition: orNull(slots[3]),
+    energyIn: orNull(slots[4]),
+    energyBarrier: orNull(slots[5]),
+    bistable: slots[6] === 1,
+    maxStrain: slots[7],
+    strainLimit: slots[8],
+    safetyFactor: slots[9],
   }
 }

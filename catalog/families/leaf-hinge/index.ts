@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 
 export const leafHinge = defineFamily({
   id: 'leaf-hinge',
@@ -9,6 +10,7 @@ export const leafHinge = defineFamily({
   kind: 'hinge',
   summary: 'A thin blade between a fixed and a moving link: a one-piece pivot for lids, doors and flaps.',
   defaultMethod: 'nonlinear-fe',
+  search: { estimator },
   designMap: { sweep: ['length', 'thickness'] },
   cautions: [
     'The blade strain is checked against the material\u2019s strain limit shown with the result; a hinge opened and closed many times fatigues at strains far below its one-off limit, so keep a margin, and prefer tough materials (PP, PETG, PA) over brittle ones.',

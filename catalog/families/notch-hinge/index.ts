@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 
 export const notchHinge = defineFamily({
   id: 'notch-hinge',
@@ -9,6 +10,7 @@ export const notchHinge = defineFamily({
   kind: 'hinge',
   summary: 'A block with two circular cuts leaving a thin neck: a compact, precise pivot for small rotations.',
   defaultMethod: 'paros-weisbord',
+  search: { estimator },
   designMap: { sweep: ['radius', 'neckThickness'] },
   cautions: [
     'The neck strain is checked against the material\u2019s strain limit shown with the result; a hinge cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',

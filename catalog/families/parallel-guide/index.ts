@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 
 export const parallelGuide = defineFamily({
   id: 'parallel-guide',
@@ -9,6 +10,7 @@ export const parallelGuide = defineFamily({
   kind: 'guide',
   summary: 'Two parallel blades carrying a stage: a straight-line guide without sliding parts, with a small known parasitic motion.',
   defaultMethod: 'nonlinear-fe',
+  search: { estimator },
   designMap: { sweep: ['length', 'thickness'] },
   cautions: [
     'The blade strain is checked against the material\u2019s strain limit shown with the result; a guide cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',

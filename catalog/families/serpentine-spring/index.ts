@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 
 export const serpentineSpring = defineFamily({
   id: 'serpentine-spring',
@@ -9,6 +10,7 @@ export const serpentineSpring = defineFamily({
   kind: 'spring',
   summary: 'A meander of thin spans between two pads: a soft, compact return spring printed flat in one piece.',
   defaultMethod: 'nonlinear-fe',
+  search: { estimator },
   designMap: { sweep: ['spanLength', 'thickness'] },
   cautions: [
     'The peak strain is checked against the material\u2019s strain limit shown with the result; a spring cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',

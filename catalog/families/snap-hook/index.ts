@@ -2,6 +2,7 @@ import { defineFamily } from '../../schema/define'
 import * as geometry from './geometry'
 import * as model from './model'
 import * as params from './params'
+import { estimator } from './search'
 
 export const snapHook = defineFamily({
   id: 'snap-hook',
@@ -9,6 +10,7 @@ export const snapHook = defineFamily({
   kind: 'latch',
   summary: 'A tapered cantilever arm with a hook that deflects over a lead-in face and catches behind an undercut: lids, battery doors, cable clips.',
   defaultMethod: 'snap-fit-equations',
+  search: { estimator },
   designMap: { sweep: ['length', 'rootThickness'] },
   cautions: [
     'The root strain is checked against the material\u2019s strain limit shown with the result; for a hook that is assembled and released many times, keep the root strain to about 60 % of a single-assembly limit (suppliers\u2019 guides, from memory).',

@@ -147,7 +147,8 @@ describe('search with a family that has no dedicated estimator', () => {
   it('judges on records through the family\u2019s own fast method and finds what the dedicated estimator finds', async () => {
     const { DEMO_SHELF, searchShelfSync } = await import('../../../catalog/search')
     const guide = families.find((f) => f.id === 'parallel-guide')!
-    const copy: FamilyDefinition = { ...guide, id: 'made-up-guide' }
+    // a copy without its folder's estimator (the search section)
+    const copy: FamilyDefinition = { ...guide, id: 'made-up-guide', search: undefined }
     expect(estimatorFor(copy).fill).toBeUndefined()
     const entry = DEMO_SHELF.find((e) => e.familyId === 'parallel-guide')!
     const window = { kind: 'guide', stiffness: { min: 0.5, max: 4 }, travel: { min: 1 }, limit: 8 }
