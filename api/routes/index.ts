@@ -3,6 +3,7 @@ import type { AppContext } from '../context'
 import { accountRouter } from './account'
 import { auditRouter } from './audit'
 import { authRouter } from './auth'
+import { compareRouter } from './compare'
 import { configurationsRouter, sharedRouter } from './configurations'
 import { configureRouter } from './configure'
 import { curationRouter } from './curation'
@@ -39,6 +40,7 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/outbox', router: outboxRouter(context) },
     { path: '/shelf', router: shelfRouter(context) },
     { path: '/search', router: searchRouter(context) },
+    { path: '/compare', router: compareRouter(context) },
     { path: '/searches', router: searchesRouter(context) },
     { path: '/audit', router: auditRouter(context) },
   ]

@@ -157,6 +157,13 @@ const ROWS: Row[] = [
   // configure (docs/api.md, "Configure"): any signed-in user on a visible entry
   { route: 'POST /api/entries/:id/check', path: () => `/api/entries/${configure.entryId}/check`, body: () => ({ params: { length: 12 } }), expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/entries/:id/stl', path: () => `/api/entries/${configure.entryId}/stl?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
+  ...['3mf', 'dxf', 'svg'].map((file): Row => ({
+    route: `GET /api/entries/:id/${file}`, path: () => `/api/entries/${configure.entryId}/${file}?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200),
+  })),
+  // comparing results: any signed-in user, over entries they can see
+  ...['', '/csv', '/pdf'].map((file): Row => ({
+    route: `GET /api/compare${file}`, path: () => `/api/compare${file}?items=${encodeURIComponent(JSON.stringify([{ entryId: configure.entryId, params: { length: 12 } }]))}`, expected: statuses(401, 200, 200, 200, 200),
+  })),
   { route: 'GET /api/entries/:id/curve.csv', path: () => `/api/entries/${configure.entryId}/curve.csv?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/entries/:id/datasheet', path: () => `/api/entries/${configure.entryId}/datasheet?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/entries/:id/datasheet.pdf', path: () => `/api/entries/${configure.entryId}/datasheet.pdf?${CONFIGURE_QUERY}`, expected: statuses(401, 200, 200, 200, 200) },
@@ -170,12 +177,12 @@ const ROWS: Row[] = [
   { route: 'DELETE /api/configurations/:id', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.deleteId}`, expected: statuses(401, 404, 404, 404, 204) },
   { route: 'POST /api/configurations/:id/share', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.ownId}/share`, expected: statuses(401, 404, 404, 404, 200) },
   { route: 'DELETE /api/configurations/:id/share', case: "the admin's (owner only)", path: () => `/api/configurations/${configure.unshareId}/share`, expected: statuses(401, 404, 404, 404, 204) },
-  ...['check', 'stl', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
+  ...['check', 'stl', '3mf', 'dxf', 'svg', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
     route: `GET /api/configurations/:id/${file}`, case: "the admin's (owner only)", path: () => `/api/configurations/${configure.ownId}/${file}`, expected: statuses(401, 404, 404, 404, 200),
   })),
   // a share link: any signed-in user, read-only
   { route: 'GET /api/shared/:token', path: () => `/api/shared/${configure.shareToken}`, expected: statuses(401, 200, 200, 200, 200) },
-  ...['check', 'stl', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
+  ...['check', 'stl', '3mf', 'dxf', 'svg', 'curve.csv', 'datasheet', 'datasheet.pdf'].map((file): Row => ({
     route: `GET /api/shared/:token/${file}`, path: () => `/api/shared/${configure.shareToken}/${file}`, expected: statuses(401, 200, 200, 200, 200),
   })),
 ]
