@@ -28,6 +28,8 @@ export interface Config {
   /** Folder holding the database, uploads and the development JWT secret. */
   dataDir: string
   databaseFile: string
+  /** FLEXSHELF_REDIS_URL: shared state and the job queue for several instances; null keeps both in this process. */
+  redisUrl: string | null
   /** FLEXSHELF_DATABASE_URL: a postgres:// URL shared by several instances; null keeps the embedded SQLite file. */
   databaseUrl: string | null
   uploadsDir: string
@@ -205,6 +207,19 @@ function parseS3Settings(env: NodeJS.ProcessEnv): S3Settings | null {
   }
 }
 
+function parseRedisUrl(value: string | undefined): string | null {
+  if (!value) return null
+  let parsed: URL
+  try {
+    parsed = new URL(value)
+  } catch {
+    throw new ConfigError('FLEXSHELF_REDIS_URL must be a URL like redis://redis.example.test:6379/0 (or rediss:// for TLS)')
+  }
+  if (parsed.protocol !== 'redis:' && parsed.protocol !== 'rediss:') throw new ConfigError(`FLEXSHELF_REDIS_URL must start with redis:// or rediss:// (got ${parsed.protocol}//)`)
+  if (!parsed.hostname) throw new ConfigError('FLEXSHELF_REDIS_URL must name the Redis host')
+  return value
+}
+
 function parseDatabaseUrl(value: string | undefined): string | null {
   if (!value) return null
   let parsed: URL
@@ -321,6 +336,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     dataDir,
     databaseFile: join(dataDir, 'flexshelf.sqlite'),
     databaseUrl: parseDatabaseUrl(env.FLEXSHELF_DATABASE_URL),
+    redisUrl: parseRedisUrl(env.FLEXSHELF_REDIS_URL),
     uploadsDir: join(dataDir, 'uploads'),
     s3: parseS3Settings(env),
     webDir: join(projectRoot, 'dist', 'web'),

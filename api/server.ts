@@ -7,7 +7,9 @@ import { ConfigError, loadConfig } from './config'
 import { openDatabase } from './db'
 import { seedBuiltinMaterials, seedDemoData } from './db/seed'
 import { demoAccountsWithPassword } from './services/admin-accounts'
-import { configureComputePool } from './services/compute-pool'
+import { computeBudgetMs, configureComputePool } from './services/compute-pool'
+import { configureJobQueue } from './services/job-queue'
+import { connectSharedState } from './services/shared-state'
 import { secureDataFolder } from './services/data-folder'
 
 /** A production server must not run with accounts whose password is printed in the README. */
@@ -42,7 +44,11 @@ async function main(): Promise<void> {
   }
   if (config.production) await refuseDemoAccounts(context)
 
-  await configureComputePool({ threads: config.computeThreads, budgetMs: config.computeBudgetMs })
+  // several instances: shared state and the job queue on Redis; the API then runs no heavy work itself
+  const shared = config.redisUrl ? await connectSharedState(context, config.redisUrl) : null
+  if (config.redisUrl) await configureJobQueue(config.redisUrl, computeBudgetMs)
+  else if (config.databaseUrl) console.warn('FLEXSHELF_DATABASE_URL is set without FLEXSHELF_REDIS_URL: run one instance only (caches, rate limits and sign-in delays are per process)')
+  await configureComputePool({ threads: config.redisUrl ? 0 : config.computeThreads, passwordThreads: config.computeThreads > 0 ? 1 : 0, budgetMs: config.computeBudgetMs })
   const app = createApp(context)
   const server = app.listen(config.port, () => {
     const address = server.address()
@@ -56,7 +62,7 @@ async function main(): Promise<void> {
 
   const shutdown = () => {
     server.close(() => {
-      Promise.allSettled([configureComputePool({ threads: 0 }), db.close()]).finally(() => process.exit(0))
+      Promise.allSettled([configureComputePool({ threads: 0 }), configureJobQueue(null, computeBudgetMs), shared?.close(), db.close()]).finally(() => process.exit(0))
     })
   }
   process.on('SIGINT', shutdown)

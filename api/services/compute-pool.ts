@@ -23,6 +23,7 @@ import type { EvaluateOptions, Evaluation, PartFormat } from '../../catalog'
 import type { ToleranceBand } from '../../catalog/tolerance'
 import type { PrinterProfile } from '../../catalog/window'
 import { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS, type ComputeAsk } from './compute/budget'
+import { jobQueueActive, runQueued } from './job-queue'
 import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask } from './compute/tasks'
 import { computeJobDuration, setComputeQueueProbe } from './metrics'
 
@@ -111,6 +112,13 @@ function isQueueFull(err: unknown): boolean {
  * it picks the task up; only then does the budget's clock start.
  */
 async function runBudgetedUntimed(task: ComputeTask, ask: ComputeAsk): Promise<unknown> {
+  // several instances: the job queue's workers run it (api/services/job-queue.ts), never this process
+  if (jobQueueActive()) return runQueued(task, ask, budgetMs)
+  return runHere(task, ask)
+}
+
+/** Runs a task on this process's pool under the budget (what a queue worker does with a job). */
+export async function runHere(task: ComputeTask, ask: ComputeAsk): Promise<unknown> {
   if (!pool) return runTask(task)
   const current = pool
   const limit = budgetMs

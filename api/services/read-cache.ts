@@ -6,14 +6,19 @@
  * transaction counts at once and again after the commit, so an answer read in between
  * (from before the commit) is not kept either.
  *
- * One server process owns the database (SQLite, docs/api.md), so every write passes through
- * these hooks; raw SQL writes would not, and the API has none on these tables.
+ * With the embedded SQLite file one server process owns the database, so every write passes
+ * through these hooks; raw SQL writes would not, and the API has none on these tables. With
+ * several instances on one PostgreSQL database, each announces its committed writes over Redis
+ * (shared-state.ts) and counts the others' as they arrive, so a retire on one instance is off
+ * the other's shelf list within the message's trip (milliseconds).
  */
 import { LRUCache } from 'lru-cache'
 import type { Model, ModelStatic, Transaction } from 'sequelize'
 import type { Database } from '../db'
 
 export type TableName = 'Entry' | 'EntryRevision' | 'User' | 'RevokedToken' | 'TestReport' | 'EntryComment' | 'Material'
+
+const TABLES: readonly TableName[] = ['Entry', 'EntryRevision', 'User', 'RevokedToken', 'TestReport', 'EntryComment', 'Material']
 
 const WRITE_HOOKS = ['afterCreate', 'afterUpdate', 'afterDestroy', 'afterSave', 'afterUpsert', 'afterRestore', 'afterBulkCreate', 'afterBulkUpdate', 'afterBulkDestroy'] as const
 
@@ -31,17 +36,37 @@ export class ReadCache {
 
   constructor(db: Database) {
     const models = db.models as unknown as Record<TableName, ModelStatic<Model> | undefined>
-    for (const table of ['Entry', 'EntryRevision', 'User', 'RevokedToken', 'TestReport', 'EntryComment', 'Material'] as TableName[]) {
+    for (const table of TABLES) {
       const model = models[table]
       if (!model) continue
       const counted = (_a: unknown, b?: unknown) => {
         this.count(table)
         // bulk hooks get the options first, instance hooks second
         const options = ((b ?? _a) ?? {}) as { transaction?: Transaction | null }
-        options.transaction?.afterCommit(() => this.count(table))
+        if (options.transaction) {
+          options.transaction.afterCommit(() => {
+            this.count(table)
+            this.announce?.(table)
+          })
+        } else {
+          this.announce?.(table)
+        }
       }
       for (const hook of WRITE_HOOKS) model.addHook(hook as never, `read-cache-${hook}`, counted as never)
     }
+  }
+
+  /** Tells the other instances of a committed write (shared-state.ts, Redis pub/sub); unset with one instance. */
+  private announce: ((table: TableName) => void) | null = null
+
+  /** Several instances on one database: every committed write here is announced through `announce`. */
+  announceWritesTo(announce: ((table: TableName) => void) | null): void {
+    this.announce = announce
+  }
+
+  /** Another instance committed a write to `table`: answers read from it before are no longer used. */
+  writtenElsewhere(table: TableName): void {
+    if (TABLES.includes(table)) this.count(table)
   }
 
   private count(table: TableName): void {

@@ -10,6 +10,7 @@ import { parseWindow, windowCacheKey, type ForceWindow, type SearchAnswer, type 
 import type { AppContext } from '../../context'
 import { HttpError, notFound } from '../../errors'
 import { toHttpError } from '../../middleware/error-handler'
+import { jobQueueActive, queuedSearchPool } from '../job-queue'
 import { sharedSearchPool, type SearchPool } from './pool'
 import { loadShelf, type ShelfSnapshot } from './shelf'
 
@@ -54,7 +55,7 @@ export class SearchService {
   /** Cache hits and misses since start (tests and the bench read them). */
   readonly stats = { hits: 0, misses: 0 }
 
-  constructor(private readonly context: AppContext, private readonly pool: SearchPool = sharedSearchPool()) {}
+  constructor(private readonly context: AppContext, private readonly pool: Pick<SearchPool, 'run'> = jobQueueActive() ? queuedSearchPool : sharedSearchPool()) {}
 
   /** Checks the window (400 naming the field) and loads the shelf it is searched over. */
   private async prepare(body: unknown): Promise<{ window: ForceWindow; shelf: ShelfSnapshot; key: string }> {
