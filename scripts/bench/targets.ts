@@ -14,7 +14,7 @@
  * of this process is shown beside wall time, as the machine is shared. Asserts nothing.
  */
 import { loadavg } from 'node:os'
-import { buildGeometry, clearSolidCache, families, serializeStl } from '../../catalog/index'
+import { buildGeometry, buildPartFile, clearSolidCache, families, PART_FORMATS, serializeStl, type PartFormat } from '../../catalog/index'
 import type { FamilyDefinition } from '../../catalog/schema/types'
 import { closedFormMetrics } from '../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../catalog/families/bistable-beam/curve-metrics'
@@ -159,6 +159,7 @@ function buildFiles(list: readonly FamilyDefinition[]): FileRow[] {
     const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
     const writers: Record<string, () => unknown> = {
       stl: () => serializeStl(buildGeometry(family.id, params)),
+      ...Object.fromEntries((Object.keys(PART_FORMATS) as PartFormat[]).map((format) => [format, () => buildPartFile(format, family.id, params, { name: family.name })])),
     }
     const ms: Record<string, number> = {}
     for (const [name, write] of Object.entries(writers)) {
