@@ -8,12 +8,14 @@ import * as initial from './migrations/0001-initial'
 import * as curation from './migrations/0002-curation'
 import * as savedConfigurationSettings from './migrations/0003-saved-configuration-settings'
 import * as accounts from './migrations/0004-accounts'
+import * as reportComparison from './migrations/0005-report-comparison'
 
 const migrations: RunnableMigration<QueryInterface>[] = [
   { name: '0001-initial', up: initial.up, down: initial.down },
   { name: '0002-curation', up: curation.up, down: curation.down },
   { name: '0003-saved-configuration-settings', up: savedConfigurationSettings.up, down: savedConfigurationSettings.down },
   { name: '0004-accounts', up: accounts.up, down: accounts.down },
+  { name: '0005-report-comparison', up: reportComparison.up, down: reportComparison.down },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

@@ -7,7 +7,7 @@ import { HttpError, validationFailed } from '../errors'
 import { currentAuth } from '../middleware/authenticate'
 import { allow } from '../middleware/require-role'
 import { parseEntryId } from '../services/entries'
-import { adoptModulus, createReport, entryCalibration, parseReportId, reportDownload, reviewReport, type UploadedFile } from '../services/reports'
+import { adoptModulus, createReport, entryCalibration, parseReportId, reportCurve, reportDownload, reviewReport, type UploadedFile } from '../services/reports'
 
 /** multer in memory: nothing reaches the disk before the report is checked and stored. */
 function uploadFiles(context: AppContext): RequestHandler {
@@ -84,6 +84,11 @@ export function reportsRouter(context: AppContext): Router {
   router.post('/:id/accept', allow('librarian'), review('accepted'))
   router.post('/:id/reject', allow('librarian'), review('rejected'))
   router.post('/:id/adopt-modulus', allow('librarian'), adopt)
+  async function curve(req: Request<{ id: string }>, res: Response) {
+    res.json(await reportCurve(context, currentAuth(req).user, parseReportId(req.params.id)))
+  }
+
+  router.get('/:id/curve', allow('engineer'), curve)
   router.get('/:id/file', allow('engineer'), download('file'))
   router.get('/:id/photo', allow('engineer'), download('photo'))
   return router

@@ -6,7 +6,7 @@ import type { Entry, EntryRevision, TestReport, User } from '../db'
 import { notFound } from '../errors'
 import { hasRole } from '../roles'
 import { listMaterials } from './materials'
-import { compareReport } from './report-comparison'
+import { compareReport, type MaterialNumbers, type ReportComparison } from './report-comparison'
 
 type Person = { id: number; displayName: string }
 
@@ -63,6 +63,40 @@ export function toRevisionView(revision: EntryRevision) {
   }
 }
 
+/** Points of a report's curve on entry pages and in the review queue. */
+export const PREVIEW_POINTS = 400
+
+/**
+ * At most PREVIEW_POINTS points of a measured curve for drawing: the curve cut into buckets of
+ * equal point count, each kept as its lowest and highest force in the order they came (min-max
+ * decimation, so peaks and valleys stay on the plot); the first and last point always.
+ */
+export function previewCurve(curve: { displacement: number[]; force: number[] }, max = PREVIEW_POINTS): { displacement: number[]; force: number[] } {
+  const n = curve.displacement.length
+  if (n <= max) return curve
+  const keep = new Set<number>([0, n - 1])
+  const buckets = Math.floor((max - 2) / 2)
+  for (let b = 0; b < buckets; b++) {
+    const from = 1 + Math.floor((b * (n - 2)) / buckets)
+    const to = 1 + Math.floor(((b + 1) * (n - 2)) / buckets)
+    let lo = from
+    let hi = from
+    for (let i = from; i < to; i++) {
+      if (curve.force[i] < curve.force[lo]) lo = i
+      if (curve.force[i] > curve.force[hi]) hi = i
+    }
+    keep.add(lo).add(hi)
+  }
+  const order = [...keep].sort((a, b) => a - b)
+  return { displacement: order.map((i) => curve.displacement[i]), force: order.map((i) => curve.force[i]) }
+}
+
+/** The report's comparison as stored at upload; compared now only for a report from before it was stored. */
+export function comparisonOf(familyId: string, report: TestReport, revision: EntryRevision | undefined | null, materials: MaterialNumbers) {
+  if (report.comparison || report.comparisonProblem) return { comparison: report.comparison as ReportComparison | null, problem: report.comparisonProblem }
+  return revision ? compareReport(familyId, report, revision, materials) : { comparison: null, problem: 'the revision this report tested is gone' }
+}
+
 export function toReportView(report: TestReport) {
   return {
     id: report.id,
@@ -80,7 +114,9 @@ export function toReportView(report: TestReport) {
     notes: report.notes,
     reviewNote: report.reviewNote ?? '',
     reviewedAt: report.reviewedAt ? report.reviewedAt.toISOString() : null,
-    measuredCurve: report.measuredCurve,
+    // a preview for the overlay plot; the whole curve is GET /api/reports/:id/curve
+    measuredCurve: previewCurve(report.measuredCurve),
+    points: report.measuredCurve.displacement.length,
     createdAt: report.createdAt.toISOString(),
   }
 }
@@ -148,7 +184,8 @@ export async function showEntry(context: AppContext, viewer: User, id: number) {
     order: [['id', 'ASC']],
   })
   const proposalFor = entry.proposalForId ? await Entry.findByPk(entry.proposalForId, { attributes: ['id', 'name', 'status', 'currentRevisionId'] }) : null
-  const materials = reports.length ? await listMaterials(context) : []
+  // only reports from before comparisons were stored need the materials
+  const materials = reports.some((r) => !r.comparison && !r.comparisonProblem) ? await listMaterials(context) : []
   return {
     ...toEntrySummary(entry),
     defaultParams: entry.defaultParams,
@@ -157,10 +194,7 @@ export async function showEntry(context: AppContext, viewer: User, id: number) {
     notes: entry.notes,
     revisions: revisions.map(toRevisionView),
     reports: reports.map((report) => {
-      const revision = revisions.find((r) => r.id === report.revisionId)
-      const { comparison, problem } = revision
-        ? compareReport(entry.familyId, report, revision, materials)
-        : { comparison: null, problem: 'the revision this report tested is gone' }
+      const { comparison, problem } = comparisonOf(entry.familyId, report, revisions.find((r) => r.id === report.revisionId), materials)
       return { ...toReportView(report), comparison, comparisonProblem: problem }
     }),
     comments: comments.map((c) => ({ id: c.id, kind: c.kind, text: c.text, author: person(c.author), createdAt: c.createdAt.toISOString() })),

@@ -25,6 +25,12 @@ export type DisplacementUnit = (typeof DISPLACEMENT_UNITS)[number]
 export type ForceUnit = (typeof FORCE_UNITS)[number]
 
 export const MIN_POINTS = 5
+/**
+ * Most data rows one report may hold. A test stand logging at 10 Hz over a 15-minute stroke
+ * writes 9,000; every figure drawn or fitted from a report needs far fewer. A 110k-row file
+ * made the review queue take seconds and answer megabytes (issue 11).
+ */
+export const MAX_REPORT_ROWS = 10_000
 
 export interface CsvProblem {
   field: string
@@ -140,6 +146,11 @@ function resolveColumn(given: string | undefined, fallback: number, header: stri
 export function parseMeasuredCurve(buffer: Buffer, options: CsvOptions): ParsedCsv {
   const text = decodeText(buffer)
   const lines = text.split(/\r\n|\n|\r/)
+  // counted before anything is parsed, so a huge file costs one pass over its line ends
+  const nonEmpty = lines.reduce((n, l) => (l.trim() === '' ? n : n + 1), 0)
+  if (nonEmpty > MAX_REPORT_ROWS + 1) {
+    fail(`the file has ${nonEmpty} rows; a test report may hold at most ${MAX_REPORT_ROWS} data rows (plus a header): resample the stroke or export fewer points`)
+  }
   const delimiter = detectDelimiter(lines)
   const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false, header: false })
   // rows keep their line number, so a message can point at the row the user sees
@@ -152,6 +163,9 @@ export function parseMeasuredCurve(buffer: Buffer, options: CsvOptions): ParsedC
   const hasHeader = options.hasHeader === 'yes' || (options.hasHeader === 'auto' && looksLikeHeader)
   const header = hasHeader ? first.cells.map((c) => c.trim()) : null
   const data = hasHeader ? rows.slice(1) : rows
+  if (data.length > MAX_REPORT_ROWS) {
+    fail(`the file has ${data.length} data rows; a test report may hold at most ${MAX_REPORT_ROWS}: resample the stroke or export fewer points`)
+  }
 
   const dIndex = resolveColumn(options.displacementColumn, 0, header, 'displacement', /displacement|extension|travel|position|stroke|deflection|rotation|angle/i)
   const fIndex = resolveColumn(options.forceColumn, 1, header, 'force', /force|load|moment|torque/i)

@@ -12,14 +12,14 @@ import { Op } from 'sequelize'
 import { z } from 'zod'
 import { calibrationSummary, families } from '../../catalog'
 import type { AppContext } from '../context'
-import type { Entry, TestReport, User } from '../db'
+import type { Entry, EntryRevision, TestReport, User } from '../db'
 import { conflict, HttpError, notFound, validationFailed } from '../errors'
 import { bodySchema, optionalTextField, parseBody, textField, type TextRules } from '../validation'
 import { recordAudit } from './audit'
-import { reportsVisibleTo, showEntry, visibleTo } from './entries'
+import { comparisonOf, reportsVisibleTo, showEntry, toReportView, visibleTo } from './entries'
 import { listMaterials } from './materials'
 import { librarianAddresses, notify, type Notice } from './notifications'
-import { compareReport, predictedMaterialOf } from './report-comparison'
+import { compareReport, predictedMaterialOf, type MaterialNumbers } from './report-comparison'
 import { CsvError, DISPLACEMENT_UNITS, FORCE_UNITS, MOMENT_UNITS, parseMeasuredCurve, ROTATION_UNITS } from './report-csv'
 import { neutraliseCsvFormulae } from './csv-safety'
 import { fileStore } from './file-store'
@@ -115,6 +115,9 @@ export async function createReport(context: AppContext, actor: User, entryId: nu
     throw new HttpError(400, 'validation_failed', message, { issues: [{ field, message }], row, column })
   }
 
+  // compared with the prediction once, here; entry pages and the review queue read it back
+  const { comparison, problem: comparisonProblem } = compareReport(entry.familyId, { measuredCurve: parsed.curve }, revision, await listMaterials(context))
+
   const filePath = `reports/${generatedName('csv')}`
   const photoPath = photo ? `photos/${generatedName(photoType === 'png' ? 'png' : 'jpg')}` : null
   // the files go first, under new random keys, and the row that points at them second: a write
@@ -134,6 +137,7 @@ export async function createReport(context: AppContext, actor: User, entryId: nu
         printer: fields.printer, material: fields.material, lot: fields.lot ?? '', orientation: fields.orientation ?? '',
         testSpeed: fields.testSpeed ? Number(fields.testSpeed) : null, notes: fields.notes ?? '', status: 'submitted',
         measuredCurve: parsed.curve,
+        comparison: comparison as unknown as Record<string, unknown> | null, comparisonProblem,
       }, { transaction })
       await recordAudit(context, transaction, {
         actorId: actor.id, action: 'report.submitted', subjectType: 'report', subjectId: created.id,
@@ -161,12 +165,38 @@ function cleanName(name: string): string {
 }
 
 /** One report as the entry page shows it (with its comparison), for a viewer who may see it. */
+/** What one report's view is read from: the report with its people, entry and revision. */
+function reportIncludes(context: AppContext) {
+  const { Entry, EntryRevision, User } = context.db.models
+  return [
+    { model: User, as: 'uploader', attributes: ['id', 'displayName'] },
+    { model: User, as: 'reviewer', attributes: ['id', 'displayName'] },
+    { model: Entry, as: 'entry', attributes: ['id', 'name', 'familyId'] },
+    { model: EntryRevision, as: 'revision' },
+  ]
+}
+
+type LoadedReport = TestReport & { entry?: Entry; revision?: EntryRevision | null }
+
+function viewOfLoaded(report: LoadedReport, materials: MaterialNumbers) {
+  const entry = report.entry!
+  const { comparison, problem } = comparisonOf(entry.familyId, report, report.revision, materials)
+  return { ...toReportView(report), comparison, comparisonProblem: problem, entry: { id: entry.id, name: entry.name, familyId: entry.familyId } }
+}
+
+/** One report as its entry page shows it (its own row only: no other report is read or compared). */
 export async function reportView(context: AppContext, viewer: User, reportId: number) {
+  await loadVisibleReport(context, viewer, reportId)
+  const report = (await context.db.models.TestReport.findByPk(reportId, { include: reportIncludes(context) })) as LoadedReport | null
+  if (!report?.entry) throw notFound('test report')
+  const materials = report.comparison || report.comparisonProblem ? [] : await listMaterials(context)
+  return viewOfLoaded(report, materials)
+}
+
+/** GET /api/reports/:id/curve: the whole measured curve (entry pages carry a preview of it). */
+export async function reportCurve(context: AppContext, viewer: User, reportId: number) {
   const report = await loadVisibleReport(context, viewer, reportId)
-  const detail = await showEntry(context, viewer, report.entryId)
-  const view = detail.reports.find((r) => r.id === report.id)
-  if (!view) throw notFound('test report')
-  return { ...view, entry: { id: detail.id, name: detail.name, familyId: detail.familyId } }
+  return { reportId: report.id, points: report.measuredCurve.displacement.length, measuredCurve: report.measuredCurve }
 }
 
 async function loadVisibleReport(context: AppContext, viewer: User, reportId: number): Promise<TestReport> {
@@ -301,10 +331,25 @@ export async function adoptModulus(context: AppContext, actor: User, reportId: n
 }
 
 /** The reports waiting for review, each with its comparison. */
-export async function reviewQueueReports(context: AppContext, viewer: User) {
-  const waiting = await context.db.models.TestReport.findAll({ where: { status: 'submitted' }, attributes: ['id'], order: [['createdAt', 'ASC'], ['id', 'ASC']] })
-  const out = []
-  for (const { id } of waiting) out.push(await reportView(context, viewer, id))
-  return out
+/** A page of the queue: `limit` items from `offset`. */
+export interface QueuePage {
+  limit: number
+  offset: number
+}
+
+/**
+ * Submitted reports, oldest first, one page of them: one query, each report's stored
+ * comparison, so the work grows with the page and not with the square of an entry's reports.
+ */
+export async function reviewQueueReports(context: AppContext, _viewer: User, page: QueuePage = { limit: 50, offset: 0 }) {
+  const { TestReport } = context.db.models
+  const where = { status: 'submitted' as const }
+  const [total, waiting] = await Promise.all([
+    TestReport.count({ where }),
+    TestReport.findAll({ where, include: reportIncludes(context), order: [['createdAt', 'ASC'], ['id', 'ASC']], limit: page.limit, offset: page.offset }),
+  ])
+  const loaded = waiting as LoadedReport[]
+  const materials = loaded.some((r) => !r.comparison && !r.comparisonProblem) ? await listMaterials(context) : []
+  return { total, items: loaded.filter((r) => r.entry).map((r) => viewOfLoaded(r, materials)) }
 }
 

@@ -145,6 +145,7 @@ const ROWS: Row[] = [
     route: 'POST /api/reports/:id/adopt-modulus', case: 'the second adoption of one report is a duplicate',
     path: () => `/api/reports/${curation.acceptedReportId}/adopt-modulus`, expected: statuses(401, 403, 403, 201, 409),
   },
+  { route: 'GET /api/reports/:id/curve', path: () => `/api/reports/${curation.acceptedReportId}/curve`, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/reports/:id/file', path: () => `/api/reports/${curation.acceptedReportId}/file`, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/reports/:id/photo', path: () => `/api/reports/${curation.acceptedReportId}/photo`, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'GET /api/outbox', path: () => '/api/outbox', expected: statuses(401, 403, 403, 403, 200) },

@@ -36,6 +36,10 @@ export class TestReport extends Model<InferAttributes<TestReport>, InferCreation
   declare reviewedAt: CreationOptional<Date | null>
   declare status: CreationOptional<ReportStatus>
   declare measuredCurve: MeasuredCurve
+  /** The comparison with the prediction made at upload (services/report-comparison.ts); null for reports from before it was stored. */
+  declare comparison: CreationOptional<Record<string, unknown> | null>
+  /** Why there is no comparison, when the upload could not make one. */
+  declare comparisonProblem: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -59,6 +63,8 @@ export class TestReport extends Model<InferAttributes<TestReport>, InferCreation
         reviewedAt: { type: DataTypes.DATE, allowNull: true },
         status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'submitted', validate: { isIn: [REPORT_STATUSES as unknown as string[]] } },
         measuredCurve: { type: DataTypes.JSON, allowNull: false },
+        comparison: { type: DataTypes.JSON, allowNull: true },
+        comparisonProblem: { type: DataTypes.TEXT, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

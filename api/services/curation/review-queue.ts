@@ -4,18 +4,26 @@ import type { User } from '../../db'
 import { showEntry } from '../entries'
 import { diffOf } from './revision-diff'
 
-export async function reviewQueueEntries(context: AppContext, viewer: User) {
+/** One page of the entries in review (limit and offset from the route), with how many wait in all. */
+export async function reviewQueueEntries(context: AppContext, viewer: User, page: { limit: number; offset: number } = { limit: 50, offset: 0 }) {
   const { Entry, User } = context.db.models
-  const waiting = await Entry.findAll({
-    where: { status: 'in_review' },
-    include: [{ model: User, as: 'owner', attributes: ['id', 'displayName'] }],
-    order: [['updatedAt', 'ASC'], ['id', 'ASC']],
-  })
-  const out = []
+  const where = { status: 'in_review' as const }
+  const [total, waiting] = await Promise.all([
+    Entry.count({ where }),
+    Entry.findAll({
+      where,
+      include: [{ model: User, as: 'owner', attributes: ['id', 'displayName'] }],
+      order: [['updatedAt', 'ASC'], ['id', 'ASC']],
+      limit: page.limit,
+      offset: page.offset,
+    }),
+  ])
+  const items = []
   for (const entry of waiting) {
     const diff = await diffOf(context, entry, undefined)
+    // each entry page reads its reports' stored comparisons: linear in the reports
     const detail = await showEntry(context, viewer, entry.id)
-    out.push({ entry: detail, diff })
+    items.push({ entry: detail, diff })
   }
-  return out
+  return { total, items }
 }

@@ -43,7 +43,10 @@ export interface TestReport {
   notes: string
   reviewNote: string
   reviewedAt: string | null
+  /** A preview of at most 400 points (peaks kept) for drawing; the whole curve: GET /api/reports/:id/curve. */
   measuredCurve: { displacement: number[]; force: number[] }
+  /** Points in the whole measured curve. */
+  points: number
   createdAt: string
   comparison: ReportComparison | null
   comparisonProblem: string | null
@@ -134,6 +137,8 @@ export interface EntryCalibration {
 export interface ReviewQueue {
   entries: Array<{ entry: EntryDetail; diff: EntryDiff }>
   reports: TestReportWithEntry[]
+  /** The page shown (limit, offset) and how many wait in all. */
+  page: { limit: number; offset: number; totalEntries: number; totalReports: number }
 }
 
 export interface OutboxMessage {

@@ -21,7 +21,7 @@ export function reviewCurves(diff: Pick<EntryDiff, 'curves' | 'against'> | null)
 export function useReviewQueue() {
   const reviewStore = useReviewStore()
   const reference = useReferenceStore()
-  const queue = shallowRef<ReviewQueue>({ entries: [], reports: [] })
+  const queue = shallowRef<ReviewQueue>({ entries: [], reports: [], page: { limit: 0, offset: 0, totalEntries: 0, totalReports: 0 } })
   const loading = ref(true)
   const error = shallowRef<ApiError | null>(null)
 
@@ -31,7 +31,7 @@ export function useReviewQueue() {
     try {
       const [q] = await Promise.all([curationApi.reviewQueue(), reference.load()])
       queue.value = q
-      reviewStore.set(q.entries.length + q.reports.length)
+      reviewStore.set(q.page ? q.page.totalEntries + q.page.totalReports : q.entries.length + q.reports.length)
     } catch (e) {
       error.value = asApiError(e)
     } finally {

@@ -9,7 +9,8 @@ export const useReviewStore = defineStore('review', () => {
   async function refresh(): Promise<void> {
     try {
       const queue = await curationApi.reviewQueue()
-      count.value = queue.entries.length + queue.reports.length
+      // the totals: the queue answers one page at a time
+      count.value = queue.page ? queue.page.totalEntries + queue.page.totalReports : queue.entries.length + queue.reports.length
     } catch {
       // the badge is a hint; the queue page reports its own errors
     }
