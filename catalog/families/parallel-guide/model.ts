@@ -51,9 +51,16 @@ export function linearStiffness(params: Record<string, number>, modulus: number)
   return (24 * modulus * bladeInertia(params)) / params.length ** 3
 }
 
-/** Peak bending strain of a fixed-guided blade at travel δ: M = 6EIδ/L² at both ends, ε = 3tδ/L². */
+/**
+ * Peak strain of the blades at travel δ: bending of a fixed-guided blade, M = 6EIδ/L² at both
+ * ends, ε = 3tδ/L² (Roark 7th ed.), plus the axial strain of the couple that holds the stage
+ * level. The blades' end moments, F·L/2 together, are balanced on the rigid stage by equal and
+ * opposite axial forces N = F·L/(2·spacing) (statics of the stage); with F = 24EIδ/L³ that is
+ * N/(EA) = t²δ/(L²·spacing), a fraction t/(3·spacing) of the bending strain.
+ */
 export function linearStrain(params: Record<string, number>, travel: number): number {
-  return (3 * params.thickness * travel) / params.length ** 2
+  const t = params.thickness, L = params.length
+  return (3 * t * travel) / L ** 2 + (t * t * travel) / (L * L * params.spacing)
 }
 
 /** Parasitic shortening of a fixed-guided blade, u = (3/5)δ²/L (Awtar et al. 2007, no axial load). */
@@ -68,7 +75,8 @@ export interface TravelRange {
 
 /** Travel at the strain limit, capped at the working range. */
 export function linearTravelRange(params: Record<string, number>, strainLimit: number): TravelRange {
-  const atLimit = (strainLimit * params.length ** 2) / (3 * params.thickness)
+  // linearStrain is proportional to the travel
+  const atLimit = strainLimit / linearStrain(params, 1)
   const cap = TRAVEL_CAP_RATIO * params.length
   return atLimit <= cap ? { maxTravel: atLimit, strainGoverned: true } : { maxTravel: cap, strainGoverned: false }
 }
