@@ -1,6 +1,6 @@
 import type { Material } from './types'
 
-// Moduli: REFERENCES.md §8 (MDPI Processes 13(9):2733, 2025 citing bulk values for PLA,
+// Moduli: docs/references.md §8 (MDPI Processes 13(9):2733, 2025 citing bulk values for PLA,
 // ABS, PETG; manufacturers' datasheets for PA12 by powder-bed fusion). Strain limits for
 // printed parts are estimates (no handbook value); snap-fit limits follow the suppliers'
 // guides as recalled (from memory, to be verified per printer and lot).

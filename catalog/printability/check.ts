@@ -2,7 +2,7 @@
  * Printability of a configured module on a printer profile: walls against the minimum wall
  * and whole perimeters, the print height against whole layers, with one-click fixes that
  * stay inside the parameter's allowed range, plus the usual printing notes. Common practice
- * throughout (REFERENCES.md §8), not a published standard.
+ * throughout (docs/references.md §8), not a published standard.
  */
 import type { ParamRanges } from '../schema/validate'
 import type { FamilyDefinition, ParamSpec } from '../schema/types'

@@ -1,6 +1,6 @@
 /**
  * What a printer profile (nozzle, layer height) allows. All of it is common FDM practice,
- * not a published standard (REFERENCES.md §8).
+ * not a published standard (docs/references.md §8).
  */
 import type { PrinterProfile } from '../window/schema'
 
@@ -15,7 +15,7 @@ export const DEFAULT_PRINTER: Readonly<PrinterProfile> = Object.freeze({ nozzle:
  * may give its own lineWidth.
  */
 export const LINE_WIDTH_PER_NOZZLE = 1.0
-/** Thinnest flexure wall, in perimeters (REFERENCES.md §8: at least two extrusion widths). */
+/** Thinnest flexure wall, in perimeters (docs/references.md §8: at least two extrusion widths). */
 export const MIN_PERIMETERS = 2
 /** A wall within 5 % of a line width of a whole number of perimeters counts as whole (our choice). */
 export const PERIMETER_TOLERANCE = 0.05

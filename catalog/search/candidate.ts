@@ -14,7 +14,7 @@
  */
 import { MODULUS_RANGE } from '../tolerance/corners'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
-import { MARGIN_LIMIT, scoreBand, type CompiledWindow } from '../window'
+import { MARGIN_LIMIT, scoreBand, sideMargin, strainBasis, strainHolds, type CompiledWindow, type StrainBasis } from '../window'
 import type { ForceWindow, ManufacturingTolerance } from '../window/schema'
 import type { Estimate, EstimateLayout, FastEstimator, FillFn } from './estimators'
 
@@ -86,8 +86,8 @@ function judged(ctx: CandidateContext, nominal: Estimate, low: Record<string, Me
   const score = scoreBand(ctx.compiled, low, high)
   const sf = low.safetyFactor
   const strainMargin = typeof sf === 'number' ? sf - 1 : null
-  // Strain-governed families report exactly 1 at their largest travel: allow for rounding.
-  const strainOk = strainMargin === null || strainMargin >= -1e-9
+  // the shared strain rule (window/rule.ts): a working range ends at a factor of 1 by construction
+  const strainOk = typeof sf !== 'number' || strainHolds(sf, Object.keys(nominal))
   const windowOk = score.margin >= 0
   let objective = score.margin
   if (strainMargin !== null && !strainOk && strainMargin < objective) objective = strainMargin
@@ -213,8 +213,11 @@ export class CandidateJudge {
   private readonly shifted: Record<string, number> = {}
   private readonly thicknessSigns: readonly number[]
   private readonly modulusScales: readonly number[]
+  /** Which strain rule applies (window/rule.ts), from the estimate's metric keys. */
+  private readonly strainBasis: StrainBasis
 
   constructor(readonly ctx: CandidateContext, readonly keys: string[]) {
+    this.strainBasis = strainBasis(ctx.estimator.layout?.keys ?? keys)
     this.fill = ctx.estimator.fill ?? null
     this.layout = ctx.estimator.layout ?? null
     const n = keys.length
@@ -411,8 +414,8 @@ export class CandidateJudge {
     const sk = this.safetyKey
     const sf = sk >= 0 && this.slotOf[sk] >= 0 && !Number.isNaN(low[sk]) && !(this.optimistic && !this.emptyFixed[sk]) ? low[sk] : null
     const strainMargin = sf === null ? null : sf - 1
-    // Strain-governed families report exactly 1 at their largest travel: allow for rounding.
-    const strainOk = strainMargin === null || strainMargin >= -1e-9
+    // the shared strain rule (window/rule.ts): a working range ends at a factor of 1 by construction
+    const strainOk = sf === null || strainHolds(sf, this.strainBasis)
     const windowOk = margin >= 0
     let objective = margin
     if (strainMargin !== null && !strainOk && strainMargin < objective) objective = strainMargin
@@ -441,8 +444,7 @@ export class CandidateJudge {
     }
     const lo = b.sign === 1 ? lowV : -highV
     const hi = b.sign === 1 ? highV : -lowV
-    const m = b.side === 'min' ? (lo - b.bound) / b.scale : (b.bound - hi) / b.scale
-    return m > MARGIN_LIMIT ? MARGIN_LIMIT : m < -MARGIN_LIMIT ? -MARGIN_LIMIT : m
+    return sideMargin(b.side, lo, hi, b.bound, b.scale)
   }
 
   /**

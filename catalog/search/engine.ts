@@ -6,29 +6,30 @@
  * exact method. Written as a generator so one body serves a synchronous run (CLI, bench,
  * tests) and a cancellable, time-sliced asynchronous one (API, web worker).
  */
-import { evaluateFamily } from '../evaluate'
 import { families as registry } from '../registry'
 import { builtinMaterials } from '../materials'
 import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'
 import { resolveTolerance } from '../tolerance'
-import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, judge, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
+import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
 import { CandidateJudge, type CandidateContext, type CandidateScore } from './candidate'
-import { estimateAllowance } from './estimate-tolerance'
-import { estimatorFor, exactMethodOf } from './estimators'
+import { exactCheck, uncertaintyOf } from './exact-check'
+import { estimatorFor } from './estimators'
 import { explainEmpty, type Tally } from './explain'
 import { MARGIN_BUCKET, marginRank, rankKey, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
 import { distinctAnswers } from './distinct'
 import { refine } from './refine'
 import { entryGrid, GridCursor, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
-import type { CloseVariant, Confirmation, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
+import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
 import { describeResult } from './why'
 
 /** Candidates sampled per entry and material when the options give no budget. */
 export const DEFAULT_BUDGET = 6000
 /** Results confirmed with the exact method when the options do not say. */
 export const DEFAULT_CONFIRM = 5
+/** Exact checks of uncertain estimates beyond the confirmed results, per search (each is three exact solves). */
+export const UNCERTAIN_CHECKS = 6
 /** Seeds per entry and material that the local search refines. */
 export const REFINE_SEEDS = 3
 /** Candidates between two checkpoints (progress, cancellation). */
@@ -117,35 +118,6 @@ function bandOf(compiled: CompiledWindow, score: CandidateScore): MetricBand {
     band[key] = typeof lo === 'number' && typeof hi === 'number' ? [lo, hi] : null
   }
   return band
-}
-
-function confirm(window: ForceWindow, compiled: CompiledWindow, s: Scored, materials: readonly SearchMaterial[]): Confirmation {
-  const method = exactMethodOf(s.unit.family)
-  try {
-    const exact = evaluateFamily(s.unit.family, { ...s.params, material: s.unit.material.id }, { method, materials: [...materials] })
-    const metrics: Record<string, number | boolean | null> = {}
-    const agreement: Record<string, number> = {}
-    const allowance = estimateAllowance(s.unit.family.id, exact.metrics, s.params)
-    const tolerance: Record<string, number> = {}
-    let withinTolerance: boolean | undefined
-    for (const key of compiled.metrics) {
-      const value = exact.metrics[key] ?? null
-      metrics[key] = value
-      const fast = s.score.nominal?.[key]
-      if (typeof value === 'number' && typeof fast === 'number') {
-        agreement[key] = fast === 0 ? Math.abs(value) : (value - fast) / Math.abs(fast)
-        if (allowance[key] !== undefined) {
-          tolerance[key] = allowance[key]
-          withinTolerance = (withinTolerance ?? true) && Math.abs(value - fast) <= allowance[key]
-        }
-      }
-    }
-    if (typeof exact.metrics.bistable === 'boolean') metrics.bistable = exact.metrics.bistable
-    const stated = withinTolerance === undefined ? {} : { tolerance, withinTolerance }
-    return { method, metrics, agreement, ...stated, verdict: judge(window, exact.metrics).verdict }
-  } catch (e) {
-    return { method, metrics: null, agreement: {}, error: (e as Error).message }
-  }
 }
 
 function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex }): Generator<void, SearchAnswer> {
@@ -270,19 +242,38 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     yield
   }
 
+  // spares beyond the limit stand in for results the exact check drops
   const groups = distinct
-    ? distinctAnswers(bestOf(accepted, accepted.length), limit, (s) => ({ group: `${s.unit.entry.id}|${s.unit.material.id}`, family: s.unit.family, params: s.params }))
-    : bestOf(accepted, limit).map((lead) => ({ lead, tier: 1 as const, variants: [] as Scored[] }))
-  const top = groups.map((g) => g.lead)
-  const confirmCount = Math.min(top.length, options.confirm ?? DEFAULT_CONFIRM)
+    ? distinctAnswers(bestOf(accepted, accepted.length), 2 * limit, (s) => ({ group: `${s.unit.entry.id}|${s.unit.material.id}`, family: s.unit.family, params: s.params }))
+    : bestOf(accepted, 2 * limit).map((lead) => ({ lead, tier: 1 as const, variants: [] as Scored[] }))
+  const confirmCount = options.confirm ?? DEFAULT_CONFIRM
+  const tolerance = resolveTolerance(window.tolerance)
   const results: SearchResult[] = []
-  for (let i = 0; i < top.length; i++) {
-    const s = top[i]
+  const dropped: DroppedResult[] = []
+  let uncertainChecks = 0
+  for (const group of groups) {
+    if (results.length >= limit) break
+    const s = group.lead
+    const { reasons: uncertain, decisive } = uncertaintyOf(s.unit.family, s.params)
     let confirmed: Confirmation | null = null
-    if (i < confirmCount) {
+    const confirming = results.length < confirmCount
+    if (!confirming && decisive && uncertainChecks >= UNCERTAIN_CHECKS) {
+      // never returned unchecked: past the budget of exact checks an uncertain estimate is left out
+      dropped.push({ entryId: s.unit.entry.id, entryName: s.unit.entry.name, params: { ...s.params, material: s.unit.material.id }, reason: `its estimate is uncertain and this search's ${UNCERTAIN_CHECKS} exact checks of uncertain estimates are spent`, uncertain })
+      continue
+    }
+    // the first results are confirmed; an estimate uncertain of itself in a way that can change
+    // the verdict is judged exactly wherever it ranks
+    if (confirming || decisive) {
+      if (!confirming) uncertainChecks++
       progress(units.length, 'confirming')
-      confirmed = confirm(window, compiled, s, materials)
+      const check = exactCheck(window, compiled, s.unit.family, s.unit.material, s.params, s.score.nominal ?? {}, tolerance, materials, uncertain)
       yield
+      if (check.contradiction) {
+        dropped.push({ entryId: s.unit.entry.id, entryName: s.unit.entry.name, params: { ...s.params, material: s.unit.material.id }, reason: check.contradiction, uncertain })
+        continue
+      }
+      confirmed = check.confirmation
     }
     const band = bandOf(compiled, s.score)
     const env = s.unit.family.envelope(s.params)
@@ -296,9 +287,10 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       margin: s.score.windowMargin,
       safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1,
       method: estimatorFor(s.unit.family).method,
+      uncertain,
       confirmed,
-      why: describeResult(i + 1, window, band, s.score, env, s.unit.material, confirmed),
-      ...(distinct ? { rank: rankKeyOf(s, groups[i].tier), closeVariants: groups[i].variants.map(variantOf) } : {}),
+      why: describeResult(results.length + 1, window, band, s.score, env, s.unit.material, confirmed),
+      ...(distinct ? { rank: rankKeyOf(s, group.tier), closeVariants: group.variants.map(variantOf) } : {}),
     })
   }
   progress(units.length, 'done')
@@ -307,7 +299,7 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
   const explanation = results.length
     ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${distinct ? ` The best design of each entry and material is listed first, then further designs that differ by more than a step and 3 % in some parameter; ${foldedText(groups)}` : ''}${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
     : explainEmpty(window, compiled, tally, rules)
-  return { results, considered: tally.considered, elapsedMs, explanation }
+  return { results, considered: tally.considered, elapsedMs, explanation: explanation + droppedSentence(dropped), dropped }
 }
 
 /** The sort key as applied, in readable numbers (rank.ts's bands). */
@@ -440,6 +432,13 @@ class UnitKeeper {
 }
 
 /** The n best by rank, each parameter set once. */
+/** The explanation's sentence on results the exact check dropped (empty when none was). */
+function droppedSentence(dropped: DroppedResult[]): string {
+  if (!dropped.length) return ''
+  const named = dropped.slice(0, 3).map((d) => `${d.entryName}: ${d.reason}${d.uncertain.length ? ` (the estimate was marked uncertain: ${d.uncertain.join(', ')})` : ''}`)
+  return ` ${dropped.length} configuration${dropped.length === 1 ? ' was' : 's were'} dropped because the exact method contradicts the fast estimate — ${named.join('; ')}${dropped.length > 3 ? `; and ${dropped.length - 3} more` : ''}.`
+}
+
 function bestOf(list: Scored[], n: number): Scored[] {
   const keyed = list.map((s) => ({ s, key: rankKey(rankOf(s)) }))
   keyed.sort((a, b) => {

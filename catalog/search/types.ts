@@ -75,6 +75,12 @@ export interface Confirmation {
   withinTolerance?: boolean
   /** The exact method's nominal verdict against the window (absent when it failed). */
   verdict?: 'inside' | 'edge' | 'outside'
+  /** The exact method's band over the tolerance corners, per window metric ([low, high], null when empty). */
+  band?: Record<string, [number, number] | null>
+  /** Smallest window margin of that band (the same rule as the fast band's margin). */
+  margin?: number
+  /** Why the fast estimate was uncertain of itself, when it was (the result was then judged exactly whatever its rank). */
+  uncertain?: string[]
   error?: string
 }
 
@@ -116,6 +122,8 @@ export interface SearchResult {
   safetyFactor: number | null
   /** Method of the fast estimate. */
   method: string
+  /** Why the fast estimate is uncertain of itself (empty when it is not); see Confirmation.uncertain. */
+  uncertain: string[]
   confirmed: Confirmation | null
   why: string
   /** The sort key, as applied (absent in the plain ranking, `distinct: false`). */
@@ -124,10 +132,21 @@ export interface SearchResult {
   closeVariants?: CloseVariant[]
 }
 
+/** A result the exact check contradicted: left out of the answer, and said so in its explanation. */
+export interface DroppedResult {
+  entryId: string | number
+  entryName: string
+  params: Record<string, number | string>
+  reason: string
+  uncertain: string[]
+}
+
 export interface SearchAnswer {
   results: SearchResult[]
   /** Candidate parameter sets estimated (sampling and refinement). */
   considered: number
   elapsedMs: number
   explanation: string
+  /** Results the exact check contradicted (the fast estimate's band held, the exact one did not). */
+  dropped: DroppedResult[]
 }

@@ -14,6 +14,15 @@ const STABILITY_STEP_FRACTION = 1e-4
 const EXTREMUM_ITERATIONS = 60
 const EXTREMUM_WIDTH = 1e-9
 const EXTREMUM_REACTION = 1e-7
+/**
+ * A converged step that is not the continuation of the last state (leftBranch) is retried
+ * shorter: near a fold no equilibrium lies ahead on the branch, and Newton finds one on
+ * another. Below FOLD_STEP_FRACTION of the station spacing, a state still jumping with the
+ * reaction changing by more than FOLD_REACTION of the reaction scale is a fold of the path in
+ * the control value (a limit point in displacement): the part snaps there.
+ */
+const FOLD_STEP_FRACTION = 1e-6
+const FOLD_REACTION = 1e-3
 
 interface Snapshot {
   lambda: number
@@ -142,6 +151,23 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
   const best = snapshot(ws)
   const before = snapshot(ws)
   let haveBefore = false
+  // a stable state on another branch, met by a step that overshot a fold: where the part lands
+  const landedAt = snapshot(ws)
+  let haveLanding = false
+  const jumpTo = (to: Snapshot) => {
+    // the last state on the branch is the fold: the curve shows it, then where the part lands
+    ws.u.set(done.u)
+    recordPoint(result, ws, request, done.lambda, done.reaction, done.maxStrain, done.stable)
+    result.jumps.push(done.lambda)
+    result.steps++
+    ws.u.set(to.u)
+    recordPoint(result, ws, request, to.lambda, to.reaction, to.maxStrain, to.stable)
+    copyInto(before, done)
+    haveBefore = false
+    copyInto(done, to)
+    haveLanding = false
+    step = spacing / 4
+  }
 
   const start = solveAt(ws, 0, done)
   if (!start.converged) {
@@ -161,7 +187,12 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
     const outcome = solveAt(ws, lambda, trial)
     if (!outcome.converged) {
       step /= 4
-      if (Math.abs(step) < MIN_STEP_FRACTION * Math.abs(spacing) && jumpPastFold(ws, done, trial, spacing, result)) {
+      if (Math.abs(step) < MIN_STEP_FRACTION * Math.abs(spacing) && haveLanding) {
+        // no equilibrium just ahead on this branch: the fold; the part lands where the longer step found it
+        jumpTo(landedAt)
+        continue
+      }
+      if (Math.abs(step) < MIN_STEP_FRACTION * Math.abs(spacing) && jumpPastFold(ws, done, trial, spacing, result, request)) {
         // the path folded back (a snap under displacement control): continue on the branch it jumps to
         step = spacing / 4
         copyInto(before, done)
@@ -176,6 +207,21 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
           { step: result.steps + 1, control: lambda, residual: outcome.residual },
         )
       }
+      continue
+    }
+    let fold = false
+    if (leftBranch(ws, done, trial)) {
+      if (Math.abs(step) > FOLD_STEP_FRACTION * Math.abs(spacing)) {
+        if (trial.stable) { copyInto(landedAt, trial); haveLanding = true }
+        step /= 4
+        continue
+      }
+      // the step is down to a sliver of the spacing and the state still jumps: a fold when the
+      // reaction jumps too (a sharp but continuous corner of the path changes it by |slope|·step)
+      fold = Math.abs(trial.reaction - done.reaction) > FOLD_REACTION * ws.reactionScale
+    }
+    if (fold) {
+      jumpTo(trial)
       continue
     }
     if (done.stable && !trial.stable && Math.abs(step) > STABILITY_STEP_FRACTION * Math.abs(spacing)) {
@@ -201,6 +247,7 @@ export function followDisplacement(frame: Frame, request: PathRequest): PathResu
     copyInto(before, done)
     haveBefore = !turned
     copyInto(done, trial)
+    if (haveLanding && (landedAt.lambda - done.lambda) * Math.sign(target) <= 0) haveLanding = false
     if (landing) {
       ws.u.set(done.u)
       recordPoint(result, ws, request, done.lambda, done.reaction, done.maxStrain, done.stable)
@@ -262,16 +309,32 @@ function locateExtremum(ws: Workspace, lo: Snapshot, hi: Snapshot, mid: Snapshot
 }
 
 /**
+ * Whether the converged `trial` is not the continuation of `done`: its reaction differs from
+ * the tangent's prediction by more than the predicted change itself plus FOLD_REACTION of the
+ * reaction scale. Near a fold the tangent slope grows without bound, so the criterion lets a
+ * step reach about four times the distance left to the fold and no further; a step past it
+ * lands on the branch the part snaps to, with the reaction jumping against the slope.
+ */
+function leftBranch(ws: Workspace, done: Snapshot, trial: Snapshot): boolean {
+  const expected = done.slope * (trial.lambda - done.lambda)
+  return Math.abs(trial.reaction - done.reaction - expected) > Math.abs(expected) + FOLD_REACTION * ws.reactionScale
+}
+
+/**
  * At a fold of the path under displacement control no equilibrium lies just ahead: the part
  * snaps. Looks for a stable equilibrium a little further on (a quarter station, then half, one),
  * starting from the last state, and records the jump. Returns false when none is found.
  */
-function jumpPastFold(ws: Workspace, done: Snapshot, into: Snapshot, spacing: number, result: PathResult): boolean {
+function jumpPastFold(ws: Workspace, done: Snapshot, into: Snapshot, spacing: number, result: PathResult, request: PathRequest): boolean {
   for (const ahead of [0.25, 0.5, 1]) {
     const lambda = done.lambda + ahead * spacing
     ws.u.set(done.u)
     if (solveAt(ws, lambda, into).converged && into.stable) {
+      ws.u.set(done.u)
+      recordPoint(result, ws, request, done.lambda, done.reaction, done.maxStrain, done.stable)
       result.jumps.push(done.lambda)
+      ws.u.set(into.u)
+      recordPoint(result, ws, request, into.lambda, into.reaction, into.maxStrain, into.stable)
       return true
     }
   }

@@ -3,4 +3,4 @@
  * control). Precomputed tables record the version they were made with, and a test fails when
  * the two differ, so a stale table cannot go unnoticed.
  */
-export const SOLVER_VERSION = 1
+export const SOLVER_VERSION = 2

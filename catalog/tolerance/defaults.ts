@@ -3,7 +3,7 @@ import type { ManufacturingTolerance } from '../window/schema'
 /**
  * Default manufacturing tolerance for FDM parts — common practice, not a published value:
  * walls come out within about ±0.05 mm of the model on a tuned printer, and the modulus of a
- * printed part differs from the filament's nominal value by ±10 % at least (REFERENCES.md §8:
+ * printed part differs from the filament's nominal value by ±10 % at least (docs/references.md §8:
  * it spreads ±20–30 % with process and orientation, so calibrate it with a measured coupon).
  * Force grows with the cube of thickness, so the wall tolerance usually dominates.
  */

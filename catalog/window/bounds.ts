@@ -14,7 +14,7 @@ export const PRINTER_BOUNDS = Object.freeze({
 export const TOLERANCE_BOUNDS = Object.freeze({
   /** ± wall thickness, mm (common practice: a tuned printer holds ±0.05 mm, a poor one ±0.3 mm). */
   thickness: Object.freeze({ min: 0, max: 1 }),
-  /** ± modulus as a fraction: printed moduli spread ±20–30 % (REFERENCES.md §8); ±50 % is the most a band means anything at. */
+  /** ± modulus as a fraction: printed moduli spread ±20–30 % (docs/references.md §8); ±50 % is the most a band means anything at. */
   modulus: Object.freeze({ min: 0, max: 0.5 }),
 })
 /** Footprint sides, mm: a printer's bed holds 1 mm to 2 m (common practice). */

@@ -3,7 +3,7 @@
  * margins as judge() (a test holds them equal), without building report objects.
  */
 import type { MetricValue } from '../schema/types'
-import { MARGIN_LIMIT } from './judge'
+import { boundScale, MARGIN_LIMIT, sideMargin } from './rule'
 import { quantitiesOf } from './quantities'
 import type { ForceWindow, WindowRange } from './schema'
 
@@ -34,7 +34,7 @@ export function compileWindow(window: ForceWindow): CompiledWindow {
     for (const side of ['min', 'max'] as const) {
       const bound = range[side]
       if (bound === undefined) continue
-      const scale = range.min !== undefined && range.max !== undefined && range.max > range.min ? range.max - range.min : Math.max(Math.abs(bound), q.scaleFloor)
+      const scale = boundScale(range.min, range.max, bound, q.scaleFloor)
       bounds.push({ id: `${q.key}.${side}`, metric: q.metric, sign: q.sign, side, bound, scale, nullMeans: q.nullMeans })
     }
   }
@@ -51,8 +51,7 @@ export function boundMargin(b: CompiledBound, low: MetricValue, high: MetricValu
   }
   const lo = b.sign === 1 ? low : -high
   const hi = b.sign === 1 ? high : -low
-  const m = b.side === 'min' ? (lo - b.bound) / b.scale : (b.bound - hi) / b.scale
-  return m > MARGIN_LIMIT ? MARGIN_LIMIT : m < -MARGIN_LIMIT ? -MARGIN_LIMIT : m
+  return sideMargin(b.side, lo, hi, b.bound, b.scale)
 }
 
 export interface WindowScore {

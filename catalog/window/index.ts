@@ -6,3 +6,5 @@ export { judge, judgeWithBand, judgeStrain, verdictOf, worstVerdict, EDGE_FRACTI
 export type { Judgement, ConstraintCheck, StrainCheck, Verdict, MetricBand, Metrics, JudgeOptions } from './judge'
 export { compileWindow, boundMargin, scoreBand } from './compiled'
 export type { CompiledWindow, CompiledBound, WindowScore } from './compiled'
+export { clampMargin, boundScale, sideMargin, strainBasis, strainHolds, RANGE_LIMIT_SLACK } from './rule'
+export type { StrainBasis } from './rule'

@@ -9,14 +9,14 @@
  * 'inside' above. Over a band, every bound is judged at the band's worst end (low end for a
  * min, high end for a max), so 'inside' for the band means every tolerance corner is inside.
  */
+import { boundScale, clampMargin, EDGE_FRACTION, MARGIN_LIMIT, sideMargin, strainBasis, strainHolds } from './rule'
 import type { MetricValue } from '../schema/types'
 import { quantitiesOf, type WindowQuantity } from './quantities'
 import type { ForceWindow, WindowRange } from './schema'
 
 /** A bound closer than 5 % of the window width (or of a one-sided bound) counts as 'edge' (our choice). */
-export const EDGE_FRACTION = 0.05
+export { EDGE_FRACTION, MARGIN_LIMIT } from './rule'
 /** Margins are clamped to ±1000 scales, so an unbounded value (a locking hook) stays a finite JSON number. */
-export const MARGIN_LIMIT = 1000
 
 export type Verdict = 'inside' | 'edge' | 'outside'
 
@@ -66,7 +66,6 @@ export interface JudgeOptions {
   envelope?: { x: number; y: number }
 }
 
-const clampMargin = (m: number) => Math.max(-MARGIN_LIMIT, Math.min(MARGIN_LIMIT, m))
 
 export function verdictOf(margin: number | null): Verdict {
   if (margin === null || margin < 0) return 'outside'
@@ -101,8 +100,7 @@ function spanOf(q: WindowQuantity, input: Metrics | MetricBand, band: boolean): 
 }
 
 function scaleOf(q: WindowQuantity, range: WindowRange, bound: number): number {
-  if (range.min !== undefined && range.max !== undefined && range.max > range.min) return range.max - range.min
-  return Math.max(Math.abs(bound), q.scaleFloor)
+  return boundScale(range.min, range.max, bound, q.scaleFloor)
 }
 
 function checkBound(q: WindowQuantity, range: WindowRange, side: 'min' | 'max', span: Span): ConstraintCheck {
@@ -115,7 +113,7 @@ function checkBound(q: WindowQuantity, range: WindowRange, side: 'min' | 'max', 
   }
   const value = side === 'min' ? span[0] : span[1]
   const scale = scaleOf(q, range, bound)
-  const margin = clampMargin(side === 'min' ? (value - bound) / scale : (bound - value) / scale)
+  const margin = sideMargin(side, value, value, bound, scale)
   return { ...base, value, margin, verdict: verdictOf(margin) }
 }
 
@@ -141,8 +139,6 @@ function footprintChecks(window: ForceWindow, envelope: { x: number; y: number }
   return worst(turned) > worst(straight) ? turned : straight
 }
 
-/** Rounding allowance on a working range's factor of 1 (interpolated at the limit). */
-const RANGE_LIMIT_SLACK = 1e-6
 
 /** Strain against the material's limit from nominal metrics or (band = true) a tolerance band. */
 export function judgeStrain(input: Metrics | MetricBand, band: boolean): StrainCheck | null {
@@ -150,11 +146,12 @@ export function judgeStrain(input: Metrics | MetricBand, band: boolean): StrainC
   const sf = band ? (Array.isArray(raw) ? raw[0] : null) : typeof raw === 'number' ? raw : null
   if (sf === null || sf === undefined) return null
   const margin = clampMargin(sf - 1)
-  if ('maxTravel' in input || 'maxRotation' in input) {
+  const basis = strainBasis(Object.keys(input))
+  if (basis === 'working-range') {
     // the range ends where the strain reaches the limit: only a factor below 1 is a fault
-    return { basis: 'working-range', safetyFactor: sf, margin, verdict: sf >= 1 - RANGE_LIMIT_SLACK ? 'inside' : 'outside' }
+    return { basis, safetyFactor: sf, margin, verdict: strainHolds(sf, basis) ? 'inside' : 'outside' }
   }
-  return { basis: 'peak', safetyFactor: sf, margin, verdict: verdictOf(margin) }
+  return { basis, safetyFactor: sf, margin, verdict: !strainHolds(sf, basis) ? 'outside' : verdictOf(margin) }
 }
 
 /**

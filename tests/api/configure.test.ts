@@ -92,7 +92,7 @@ describe('POST /api/entries/:id/check', () => {
       const { printability, notices, envelope } = res.body
       expect(printability.basis).toMatch(/common practice/)
       expect(printability.printer).toMatchObject({ nozzle: 0.4, layer: 0.2, minimumWall: 0.8 })
-      // 0.8 mm is two 0.4 mm perimeters (REFERENCES.md §8, common practice): no wall problem
+      // 0.8 mm is two 0.4 mm perimeters (common practice, docs/references.md §8): no wall problem
       expect(printability.checks.find((c: { id: string }) => c.id === 'wall.thickness').level).toBe('ok')
       expect(notices).toEqual([])
       expect(envelope).toEqual(getFamily('bistable-beam').envelope(res.body.evaluation.params))

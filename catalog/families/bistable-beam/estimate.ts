@@ -6,22 +6,22 @@
 import type { MetricValue } from '../../schema/types'
 import { estimateFromTable } from './table'
 import { bistableTable } from './table-store'
-import { ERROR_NORMS, type ErrorQuantiles } from './table-build'
+import { ERROR_METRICS, type ErrorQuantiles } from './table-build'
 
-export type BistableToleranceMetric = keyof typeof ERROR_NORMS
+export type BistableToleranceMetric = (typeof ERROR_METRICS)[number]
 
 let tolerance: Readonly<Record<BistableToleranceMetric, number>> | null = null
 
 /**
- * The table's error against the nonlinear-fe method, per metric, as a fraction of the metric's
- * norm (ERROR_NORMS): the largest error over the generator's held-out sample of bistable parts
- * inside the family's ranges. Search widens each estimated metric's band by this much of its
+ * The table's error against the nonlinear-fe method, per metric, as a fraction of the metric
+ * itself: the largest error over the generator's held-out sample of bistable parts inside the
+ * family's ranges whose estimate is not marked uncertain (uncertainty.ts). Search widens each estimated metric's band by this much of its
  * norm before comparing with a window, and accepts an exact-solver confirmation as agreeing
  * when it is within it. Read from the table on first use.
  */
 export function bistableTableTolerance(): Readonly<Record<BistableToleranceMetric, number>> {
   tolerance ??= Object.freeze(
-    Object.fromEntries(Object.keys(ERROR_NORMS).map((k) => [k, bistableTable().validation.bistable[k].max])) as Record<BistableToleranceMetric, number>,
+    Object.fromEntries(ERROR_METRICS.map((k) => [k, bistableTable().validation.bistable[k].max])) as Record<BistableToleranceMetric, number>,
   )
   return tolerance
 }

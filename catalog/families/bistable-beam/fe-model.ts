@@ -29,13 +29,13 @@ export const FE_ELEMENTS = 20
 export const FE_POINTS = 101
 /**
  * Amplitude of the seeded second-symmetric-shape imperfection, as a fraction of the thickness.
- * It only selects the physical branch at the bifurcation (REFERENCES.md §1); at this size it
+ * It only selects the physical branch at the bifurcation (docs/references.md §1); at this size it
  * lowers the peak by well under 0.1 % (checked in the tests).
  */
 export const IMPERFECTION = 1e-5
 
 /** Bumped when the bistable frame model (mesh, imperfection, points) changes its numbers. */
-export const BISTABLE_MODEL_VERSION = 2
+export const BISTABLE_MODEL_VERSION = 3
 
 export interface FeCurve {
   /** Shuttle displacement, mm (0 … 2·apexHeight). */
@@ -43,6 +43,12 @@ export interface FeCurve {
   /** Force on the shuttle for the module (both beams), N; positive pushes. */
   force: number[]
   strain: number[]
+  /**
+   * Shuttle displacements (mm) where the path folds back under displacement control: the
+   * shuttle jumps there to the branch the curve continues on (a second snap). The curve holds
+   * the last point before the jump and the first after it, a sliver of a step apart.
+   */
+  folds: number[]
   /** The solver's path (of the fine mesh, for an extrapolated curve). */
   path: PathResult
 }
@@ -92,6 +98,7 @@ export function solveBistableFe(g: BistableGeometry, elements = FE_ELEMENTS, poi
     displacement: path.control.map((c) => -c + 0),
     force: path.reaction.map((r) => -4 * r + 0),
     strain: path.maxStrain,
+    folds: path.jumps.map((c) => -c + 0),
     path,
   }
 }
@@ -185,5 +192,5 @@ export function extrapolateCurves(fine: FeCurve, coarse: FeCurve): FeCurve | nul
       strain.push(fine.strain[k] + factor * (fine.strain[k] - sc))
     }
   }
-  return { displacement, force, strain, path: fine.path }
+  return { displacement, force, strain, folds: [], path: fine.path }
 }

@@ -24,6 +24,7 @@ export const metrics: MetricSpec[] = [
   { key: 'valleyForce', label: 'Valley force', unit: 'N', help: 'Smallest force after the peak; negative means the shuttle pulls itself into the second position.' },
   { key: 'unstablePosition', label: 'Unstable position', unit: 'mm', help: 'Where the force falls through zero between peak and valley (empty when the part springs back).' },
   { key: 'secondStablePosition', label: 'Second stable position', unit: 'mm', help: 'Where the force rises back through zero: the shuttle rests here (empty when it springs back).' },
+  { key: 'secondSnapPosition', label: 'Second snap', unit: 'mm', help: 'Where the shuttle, pushed to a set position, jumps a second time because the path folds back (short side posts): a second click. Empty when the path does not fold.' },
   { key: 'energyIn', label: 'Work to snap', unit: 'mJ', help: 'Work done pushing the shuttle to the unstable position.' },
   { key: 'energyBarrier', label: 'Energy barrier', unit: 'mJ', help: 'Work to push the shuttle back from the second position over the unstable one.' },
   { key: 'bistable', label: 'Bistable', unit: 'boolean', help: 'True when the shuttle stays in a second position by itself.' },
@@ -36,6 +37,23 @@ export const metrics: MetricSpec[] = [
 export function forceScale(p: Record<string, number>, modulus: number): number {
   const inertia = (p.depth * p.thickness ** 3) / 12
   return (2 * modulus * inertia * p.apexHeight) / p.span ** 3
+}
+
+/**
+ * The closed form's error against nonlinear-fe (rigid ends), by the arch's rise h/l, the group
+ * it depends on most: measured on a grid of span/thickness 25–150 and apexHeight/thickness
+ * 2.5–15 (tests/catalog/bistable-beam/closed-form.test.ts repeats the measurement). Peak: how
+ * much too high, %; valley: how much too deep, % of the peak.
+ */
+export const CLOSED_FORM_REGIMES = [
+  { upTo: 0.035, label: 'up to 3.5 %', peak: [1, 4], valley: 1 },
+  { upTo: 0.07, label: '3.5–7 %', peak: [3, 6], valley: 3 },
+  { upTo: 0.1, label: '7–10 %', peak: [5, 10], valley: 5 },
+  { upTo: Infinity, label: 'above 10 %', peak: [10, 31], valley: 15 },
+] as const
+
+export function closedFormRegime(rise: number): (typeof CLOSED_FORM_REGIMES)[number] {
+  return CLOSED_FORM_REGIMES.find((r) => rise <= r.upTo + 1e-12)!
 }
 
 /** Near the critical ratio a tolerance on the printed thickness can remove bistability (common practice). */
@@ -85,6 +103,7 @@ export function evaluate(input: ModelInput): ModelOutput {
     throw new ValidationError([{ field: 'method', message: 'closed-form assumes rigidly clamped beam ends (postLength 0); use nonlinear-fe for side posts' }])
   }
   let x: number[], f: number[], strain: number[], m: SnapMetrics
+  let folds: number[] = []
   if (method === 'closed-form') {
     ({ x, f, strain, m } = closedForm(p, material.modulus))
   } else {
@@ -93,10 +112,20 @@ export function evaluate(input: ModelInput): ModelOutput {
     f = fe.force
     strain = fe.strain
     m = snapMetrics(x, f)
+    // a fold before the peak cannot happen on this path; only those past it are a second snap
+    folds = fe.folds.filter((at) => at > m.peakAt)
   }
   const maxStrain = Math.max(...strain)
-  const out: Record<string, MetricValue> = reportedMetrics(m, maxStrain, material.strainLimit)
-  return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings: warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method) }
+  const reported = reportedMetrics(m, maxStrain, material.strainLimit)
+  const secondSnap = folds.length ? folds[0] : null
+  // keys in the order of `metrics`
+  const out: Record<string, MetricValue> = {}
+  for (const spec of metrics) out[spec.key] = spec.key === 'secondSnapPosition' ? secondSnap : reported[spec.key]
+  const warnings = warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method)
+  if (secondSnap !== null) {
+    warnings.push(`Second snap: the force–displacement path folds back at ${Number(secondSnap.toPrecision(3))} mm (${Number((secondSnap / p.apexHeight).toFixed(2))} × the apex height); pushed to a set position the shuttle jumps there, a second click the user will feel. The curve shows the jump; the side posts cause it, and a slightly different post length or print can move or remove it.`)
+  }
+  return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings }
 }
 
 function pct(v: number): string {
@@ -126,7 +155,8 @@ function warningsFor(p: Record<string, number>, m: SnapMetrics, maxStrain: numbe
   }
   if (method === 'closed-form') {
     if (p.apexHeight / p.span > 0.1) w.push('Deep arch (apex height above 10 % of the span): the shallow-arch closed form loses accuracy; check with nonlinear-fe.')
-    w.push('The two-mode closed form places the peak early and overstates it by several percent against the nonlinear solution.')
+    const r = closedFormRegime(p.apexHeight / p.span)
+    w.push(`The two-mode closed form places the peak early and overstates it: measured against nonlinear-fe for rigid ends with apex height ${r.label} of the span, the peak is ${r.peak[0]}–${r.peak[1]} % high and the valley up to ${r.valley} % of the peak too deep. Check the part with nonlinear-fe before relying on it.`)
   }
   if (p.postLength > 0 && method !== 'closed-form') {
     const rigid = rigidPeak(p, modulus)

@@ -4,7 +4,7 @@
  *   Q = apexHeight/thickness, η = apexHeight/span (how deep the arch is), and the side posts.
  * Posts act twice: their end rotation (∝ p = postLength/span) and their sideways give, a
  * cantilever k = 3EI/L_p³ in series with the beam's EA/l, EA/(l·k) = 4p³(span/thickness)²
- * (REFERENCES.md §1, support compliance). The sideways give is what moves the snap and removes
+ * (docs/references.md §1, support compliance). The sideways give is what moves the snap and removes
  * bistability, so the post axis is w = p·(span/thickness)^(2/3) (EA/(l·k) = 4w³): in w the
  * places where the curve changes character (the peak's corner, the second position passing
  * the end of travel, the bistability limit) lie close together for every slenderness, where
@@ -15,7 +15,12 @@ import { solveBistableCurve, type BistableGeometry } from './fe-model'
 import { snapMetrics, work } from './curve-metrics'
 import { MAX_POST, MAX_RATIO, MAX_RISE, MIN_RATIO, MIN_SLENDERNESS, params } from './params'
 
-export const TABLE_METRICS = ['peak', 'valley', 'unstableAt', 'secondAt', 'workIn', 'barrier', 'strain'] as const
+/**
+ * Normalised metrics of each node; `fold` is 1 where the path folds back past the peak (a
+ * second snap, short side posts) and 0 elsewhere: interpolated, anything above 0 says a node
+ * around the point folds, and the estimate is marked uncertain there.
+ */
+export const TABLE_METRICS = ['peak', 'valley', 'unstableAt', 'secondAt', 'workIn', 'barrier', 'strain', 'fold'] as const
 export type TableMetric = (typeof TABLE_METRICS)[number]
 
 export interface TableAxes {
@@ -25,24 +30,58 @@ export interface TableAxes {
   w: number[]
 }
 
-/** Error statistics of one metric over a validation sample (fractions; see ERROR_NORMS). */
+/** Error statistics of one metric over a validation sample (fractions of the metric itself). */
 export interface ErrorQuantiles { median: number; p90: number; p99: number; max: number }
+
+/** Flips and errors in one region of the validation sample. */
+export interface RegionValidation {
+  /** Direct solves in the region, and those the estimate marks uncertain. */
+  cases: number
+  uncertain: number
+  /** Cases where the table's bistable flag differed from the solver's, and those of them the estimate did not mark uncertain. */
+  flips: number
+  unmarkedFlips: number
+  /** Over the region's bistable cases, |table − direct| / |direct| per metric (uncertain ones included). */
+  errors: Record<string, ErrorQuantiles>
+}
 
 /** The table's interpolation error, measured by the generator on held-out direct solves. */
 export interface TableValidation {
   /** Seed of the sample (a different stream from the tests'). */
   seed: number
-  /** Direct solves in the sample, and those of them that are bistable (valley < 0) by the solver. */
+  /** Direct solves in the uniform sample, those that are bistable by the solver, those the estimate marks uncertain. */
   cases: number
   bistableCases: number
-  /** Over the bistable cases: |table − direct| / norm, per estimate metric key. */
+  uncertainCases: number
+  /**
+   * Over the uniform sample's bistable cases the estimate does not mark uncertain:
+   * |table − direct| / |direct| per estimate metric — each metric against itself (the barrier
+   * against the barrier). Search allows a certain estimate this much; uncertain ones it judges exactly.
+   */
   bistable: Record<string, ErrorQuantiles>
-  /** Over all cases (monostable ones too), for peakForce and valleyForce. */
+  /** Over all cases of the uniform sample (monostable ones too): peak and valley error as fractions of the peak. */
   all: Record<string, ErrorQuantiles>
-  /** Cases where the table's bistable flag differed from the solver's. */
+  /** Flag flips over every case (uniform sample and dense regions), and those the estimate did not mark uncertain (search relies on this being 0). */
   flips: number
+  unmarkedFlips: number
   /** Largest |valley|/peak (of the direct solve) among the flips: the band around the limit. */
   flagBand: number
+  /** Dense samples where the table is weakest: near the bistability limit, and short side posts (where the path may fold). */
+  regions: { nearLimit: RegionValidation; shortPost: RegionValidation }
+  /**
+   * Fingerprint of the table values the validation was measured on (see valuesFingerprint):
+   * a test recomputes it, so a table regenerated without its validation fails.
+   */
+  fingerprint: number
+  /** The first cases of the uniform sample with their direct and table valley/peak, re-solved by a test. */
+  spotChecks: Array<{ case: { span: number; apexHeight: number; thickness: number; depth: number; postLength: number }; direct: number; table: number }>
+}
+
+/** A checksum of the table's values (weighted sum over finite values), to six figures. */
+export function valuesFingerprint(values: Float64Array): number {
+  let sum = 0
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) sum += values[i] * (1 + (i % 97) / 97)
+  return Number(sum.toPrecision(9))
 }
 
 /** The table as stored in table-data.json (lists per metric, null where not computed or the solve failed). */
@@ -57,15 +96,8 @@ export interface BistableTableFile {
   validation: TableValidation
 }
 
-/**
- * How each estimate metric's error is normalised: forces by the peak force (a valley of 0.1 N
- * beside a 5 N peak matters as 2 % of the peak), positions by the apex height, both energies
- * by the work to snap, the strain by itself.
- */
-export const ERROR_NORMS = {
-  peakForce: 'peakForce', valleyForce: 'peakForce', unstablePosition: 'apexHeight', secondStablePosition: 'apexHeight',
-  energyIn: 'energyIn', energyBarrier: 'energyIn', maxStrain: 'maxStrain',
-} as const
+/** The estimate metrics whose error the validation states, each as a fraction of itself. */
+export const ERROR_METRICS = ['peakForce', 'valleyForce', 'unstablePosition', 'secondStablePosition', 'energyIn', 'energyBarrier', 'maxStrain'] as const
 
 export function defaultAxes(): TableAxes {
   const q = Array.from({ length: 28 }, (_, i) => 1.5 + 0.5 * i)
@@ -125,6 +157,7 @@ export function nodeMetrics(q: number, eta: number, w: number): Record<TableMetr
       unstableAt: m.unstableAt / h, secondAt: m.secondAt / h,
       workIn: m.energyIn / (scale * h), barrier: barrier / (scale * h),
       strain: Math.max(...fe.strain) / ((g.thickness * h) / g.span ** 2),
+      fold: fe.folds.some((at) => at > m.peakAt) ? 1 : 0,
     }
   } catch {
     return Object.fromEntries(TABLE_METRICS.map((k) => [k, NaN])) as Record<TableMetric, number>

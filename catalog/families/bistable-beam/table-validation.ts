@@ -7,8 +7,9 @@ import { reportedMetrics, snapMetrics } from './curve-metrics'
 import { solveBistableCurve } from './fe-model'
 import { params, rules } from './params'
 import { estimateFromTable } from './table'
-import { ERROR_NORMS, type ErrorQuantiles, type TableValidation } from './table-build'
+import { ERROR_METRICS, valuesFingerprint, type ErrorQuantiles, type RegionValidation, type TableValidation } from './table-build'
 import type { BistableTable } from './table-store'
+import { tableUncertainty, type UncertaintyReason } from './uncertainty'
 
 export type BistableCase = { span: number; apexHeight: number; thickness: number; depth: number; postLength: number }
 
@@ -52,10 +53,17 @@ export interface CaseError {
   case: BistableCase
   bistable: boolean
   flip: boolean
+  /** Why the estimate is marked uncertain (empty when it is not). */
+  uncertain: UncertaintyReason[]
   /** |valley|/peak of the direct solve. */
   valleyRatio: number
-  /** Error per metric key as a fraction of its norm (ERROR_NORMS); only where both report the metric. */
+  /** Direct and table valley/peak. */
+  valleyDirect: number
+  valleyTable: number
+  /** Error per metric as a fraction of the metric itself; only where both report it. */
   errors: Record<string, number>
+  /** Peak and valley error as fractions of the peak (the force scale of the part). */
+  ofPeak: { peakForce: number; valleyForce: number }
 }
 
 /** The error of `table` at each case (cases outside the table or where the solve fails are skipped and counted). */
@@ -64,17 +72,23 @@ export function caseErrors(table: BistableTable, cases: BistableCase[]): { rows:
   const rows: CaseError[] = []
   let outside = 0, failed = 0
   for (const c of cases) {
-    const direct = directMetrics(c, modulus, strainLimit)
-    if (!direct) { failed++; continue }
     const est = estimateFromTable(table, c, { modulus, strainLimit })
     if (!est) { outside++; continue }
-    const norms: Record<string, number> = { peakForce: Math.abs(direct.peakForce as number), apexHeight: c.apexHeight, energyIn: Math.abs((direct.energyIn as number | null) ?? NaN), maxStrain: direct.maxStrain as number }
+    const direct = directMetrics(c, modulus, strainLimit)
+    if (!direct) { failed++; continue }
     const errors: Record<string, number> = {}
-    for (const [key, norm] of Object.entries(ERROR_NORMS)) {
+    for (const key of ERROR_METRICS) {
       const a = direct[key], b = est[key]
-      if (typeof a === 'number' && typeof b === 'number' && norms[norm] > 0) errors[key] = Math.abs(b - a) / norms[norm]
+      if (typeof a === 'number' && typeof b === 'number' && a !== 0) errors[key] = Math.abs(b - a) / Math.abs(a)
     }
-    rows.push({ case: c, bistable: direct.bistable as boolean, flip: est.bistable !== direct.bistable, valleyRatio: Math.abs(direct.valleyForce as number) / (direct.peakForce as number), errors })
+    const peak = direct.peakForce as number
+    rows.push({
+      case: c, bistable: direct.bistable as boolean, flip: est.bistable !== direct.bistable, uncertain: tableUncertainty(c, table) ?? [],
+      valleyRatio: Math.abs(direct.valleyForce as number) / peak,
+      valleyDirect: (direct.valleyForce as number) / peak, valleyTable: (est.valleyForce as number) / peak,
+      errors,
+      ofPeak: { peakForce: Math.abs((est.peakForce as number) - peak) / peak, valleyForce: Math.abs((est.valleyForce as number) - (direct.valleyForce as number)) / peak },
+    })
   }
   return { rows, outside, failed }
 }
@@ -85,19 +99,68 @@ export function quantiles(values: number[]): ErrorQuantiles {
   return { median: at(0.5), p90: at(0.9), p99: at(0.99), max: s.length ? s[s.length - 1] : NaN }
 }
 
-/** Validation statistics of `table` over `count` cases from `seed` (see TableValidation). */
-export function validateTable(table: BistableTable, seed: number, count: number): TableValidation {
+const per = (list: CaseError[], key: string) => quantiles(list.map((r) => r.errors[key]).filter((v) => v !== undefined))
+
+/**
+ * Valid cases from `seed` whose table estimate lies in a region: drawn from the uniform stream
+ * and kept when `keep` says so (so a region is sampled densely without solving the rest).
+ */
+export function regionCases(table: BistableTable, seed: number, count: number, keep: (c: BistableCase, reasons: UncertaintyReason[]) => boolean): BistableCase[] {
+  const out: BistableCase[] = []
+  // bounded: at most 400 draws per kept case
+  for (let round = 0; out.length < count && round < 40; round++) {
+    for (const c of validationCases(seed + round * 7919, 10 * count)) {
+      const reasons = tableUncertainty(c, table)
+      if (reasons && keep(c, reasons)) out.push(c)
+      if (out.length >= count) break
+    }
+  }
+  return out
+}
+
+/** Near the bistability limit: the estimate's |valley| within twice the uncertain band of the peak (marked and unmarked cases alike). */
+export const nearLimit = (table: BistableTable) => (c: BistableCase): boolean => {
+  const e = estimateFromTable(table, c, { modulus: 1000, strainLimit: 1 })
+  return e !== null && Math.abs(e.valleyForce as number) < 0.3 * (e.peakForce as number)
+}
+/** Short side posts: posts up to a twentieth of the span on arches of apex height 3–8 × the thickness, where the path may fold. */
+export const shortPost = (c: BistableCase): boolean => c.postLength > 0 && c.postLength < 0.05 * c.span && c.apexHeight / c.thickness >= 3 && c.apexHeight / c.thickness <= 8
+
+function region(rows: CaseError[]): RegionValidation {
+  const bistable = rows.filter((r) => r.bistable)
+  return {
+    cases: rows.length,
+    uncertain: rows.filter((r) => r.uncertain.length > 0).length,
+    flips: rows.filter((r) => r.flip).length,
+    unmarkedFlips: rows.filter((r) => r.flip && r.uncertain.length === 0).length,
+    errors: Object.fromEntries(ERROR_METRICS.map((k) => [k, per(bistable, k)])),
+  }
+}
+
+/**
+ * Validation statistics of `table` (see TableValidation): `count` uniform cases from `seed`,
+ * and `dense` cases in each of the two weak regions from their own streams.
+ */
+export function validateTable(table: BistableTable, seed: number, count: number, dense: number): TableValidation {
   const { rows } = caseErrors(table, validationCases(seed, count))
-  const bistableRows = rows.filter((r) => r.bistable)
-  const per = (list: CaseError[], key: string) => quantiles(list.map((r) => r.errors[key]).filter((v) => v !== undefined))
-  const flips = rows.filter((r) => r.flip)
+  const near = caseErrors(table, regionCases(table, seed + 1, dense, nearLimit(table))).rows
+  const posts = caseErrors(table, regionCases(table, seed + 2, dense, shortPost)).rows
+  const certain = rows.filter((r) => r.bistable && r.uncertain.length === 0)
+  const every = [...rows, ...near, ...posts]
+  const flips = every.filter((r) => r.flip)
+  const ofPeak = (key: 'peakForce' | 'valleyForce') => quantiles(rows.map((r) => r.ofPeak[key]))
   return {
     seed,
     cases: rows.length,
-    bistableCases: bistableRows.length,
-    bistable: Object.fromEntries(Object.keys(ERROR_NORMS).map((k) => [k, per(bistableRows, k)])),
-    all: { peakForce: per(rows, 'peakForce'), valleyForce: per(rows, 'valleyForce') },
+    bistableCases: rows.filter((r) => r.bistable).length,
+    uncertainCases: rows.filter((r) => r.uncertain.length > 0).length,
+    bistable: Object.fromEntries(ERROR_METRICS.map((k) => [k, per(certain, k)])),
+    all: { peakForce: ofPeak('peakForce'), valleyForce: ofPeak('valleyForce') },
     flips: flips.length,
+    unmarkedFlips: flips.filter((r) => r.uncertain.length === 0).length,
     flagBand: flips.length ? Math.max(...flips.map((r) => r.valleyRatio)) : 0,
+    regions: { nearLimit: region(near), shortPost: region(posts) },
+    fingerprint: valuesFingerprint(table.values),
+    spotChecks: rows.slice(0, 6).map((r) => ({ case: r.case, direct: Number(r.valleyDirect.toPrecision(6)), table: Number(r.valleyTable.toPrecision(6)) })),
   }
 }

@@ -1,24 +1,20 @@
 /**
  * The bistable switch's tolerance rules. Its fast estimate is interpolated from the precomputed
  * table, so search and the configure check allow it to lie from the exact solver by the table's
- * measured interpolation error: bistableTableTolerance(), a fraction of each metric's norm
- * (ERROR_NORMS), times that norm taken from the exact answer, in the metric's own units.
+ * measured interpolation error: bistableTableTolerance(), a fraction of each metric itself,
+ * times the exact answer's value, in the metric's own units. (Estimates the table marks
+ * uncertain are judged exactly by search instead: uncertainty.ts.)
  */
 import type { MetricValue } from '../../schema/types'
 import { bistableTableTolerance } from './estimate'
-import { ERROR_NORMS } from './table-build'
+import { ERROR_METRICS } from './table-build'
 
-export function estimateAllowance(exact: Readonly<Record<string, MetricValue>>, params: Readonly<Record<string, number | string>>): Record<string, number> {
-  const norms: Record<string, number | null> = {
-    peakForce: typeof exact.peakForce === 'number' ? Math.abs(exact.peakForce) : null,
-    apexHeight: typeof params.apexHeight === 'number' ? params.apexHeight : null,
-    energyIn: typeof exact.energyIn === 'number' ? Math.abs(exact.energyIn) : null,
-    maxStrain: typeof exact.maxStrain === 'number' ? Math.abs(exact.maxStrain) : null,
-  }
+export function estimateAllowance(exact: Readonly<Record<string, MetricValue>>, _params: Readonly<Record<string, number | string>>): Record<string, number> {
+  const tolerance = bistableTableTolerance()
   const allowance: Record<string, number> = {}
-  for (const [metric, normKey] of Object.entries(ERROR_NORMS)) {
-    const norm = norms[normKey]
-    if (norm !== null) allowance[metric] = bistableTableTolerance()[metric as keyof ReturnType<typeof bistableTableTolerance>] * norm
+  for (const metric of ERROR_METRICS) {
+    const v = exact[metric]
+    if (typeof v === 'number' && Number.isFinite(v)) allowance[metric] = tolerance[metric] * Math.abs(v)
   }
   return allowance
 }

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
+import { evaluate } from '../../../catalog'
 import { closedFormMetrics } from '../../../catalog/families/bistable-beam/closed-form'
 import { snapMetrics } from '../../../catalog/families/bistable-beam/curve-metrics'
-import { CONVERGENCE_ORDER, extrapolateCurves, FE_ELEMENTS, halfBeamFrame, solveBistableCurve, solveBistableFe, type BistableGeometry } from '../../../catalog/families/bistable-beam/fe-model'
+import { CONVERGENCE_ORDER, extrapolateCurves, FE_ELEMENTS, halfBeamFrame, IMPERFECTION, solveBistableCurve, solveBistableFe, type BistableGeometry } from '../../../catalog/families/bistable-beam/fe-model'
 import { followPath, meshCurve, rectangleSection, type Frame } from '../../../catalog/solvers'
 
 /** A shallow pair (h/l = 0.02) normalised so that the force scale 2EIh/l³ is returned with it. */
@@ -27,7 +28,7 @@ const NEAR_CRITICAL: BistableGeometry = { span: 50, apexHeight: 2, thickness: 0.
 const SIDE_POSTS: BistableGeometry = { span: 60, apexHeight: 4.8, thickness: 0.8, depth: 5, postLength: 3, modulus: 2000 }
 
 describe('bistable-beam nonlinear FE', () => {
-  it('bifurcation: the perfect symmetric path overestimates the peak by a wide margin and is unstable; the seeded path is stable (Qiu et al. 2004; REFERENCES.md §1)', () => {
+  it('bifurcation: the perfect symmetric path overestimates the peak by a wide margin and is unstable; the seeded path is stable (Qiu, Lang & Slocum, J. MEMS 13(2), 2004)', () => {
     const { g, scale } = pair(6, 0.075)
     const perfect = metricsOf(g, FE_ELEMENTS, 0)
     const physical = metricsOf(g)
@@ -159,7 +160,7 @@ describe('bistable-beam nonlinear FE', () => {
   })
 })
 
-describe('bistable-beam side posts (common practice, REFERENCES.md §1)', () => {
+describe('bistable-beam side posts (common practice; see docs/references.md §1)', () => {
   const span = 60, thickness = 0.8
   const run = (apexHeight: number, postLength: number) => metricsOf({ span, apexHeight, thickness, depth: 5, postLength, modulus: 2000 }).m
 
@@ -195,5 +196,52 @@ describe('bistable-beam side posts (common practice, REFERENCES.md §1)', () => 
         expect(workChange).toBeLessThan(0.6 * peakChange)
       }
     }
+  })
+})
+
+describe('second snap: the path folds back with short side posts (limit point in displacement)', () => {
+  // apex height 5 × the thickness, span 83 × the thickness, posts about 1.0–1.1 mm on a 0.6 mm
+  // beam: followed by the arc-length method (Crisfield 1981), the path turns back in
+  // displacement near 1.82 × the apex height; under displacement control the shuttle jumps there
+  const t = 0.6
+  const base = { span: 83 * t, apexHeight: 5 * t, thickness: t, depth: 5, modulus: 2000 }
+
+  it('the arc-length path turns back in displacement where the displacement-controlled path reports its jump', () => {
+    const g = { ...base, postLength: 1.05 }
+    const { frame, mid, beamNodes } = halfBeamFrame(g, FE_ELEMENTS)
+    const imperfection = beamNodes.map((node) => ({ node, dx: 0, dy: IMPERFECTION * g.thickness * (1 - Math.cos((4 * Math.PI * frame.nodes[node].x) / g.span)) }))
+    const arc = followPath(frame, { control: { node: mid, dof: 1 }, target: -2 * g.apexHeight, points: 201, imperfection, strategy: 'arc-length' })
+    const x = arc.control.map((c) => -c)
+    let turn = -1
+    for (let i = 1; i + 1 < x.length; i++) if (x[i] > x[i - 1] && x[i + 1] < x[i] && x[i] > g.apexHeight) { turn = i; break }
+    expect(turn, 'the arc-length path folds back').toBeGreaterThan(0)
+    const fe = solveBistableFe(g)
+    expect(fe.folds.length).toBeGreaterThan(0)
+    // the fold of the arc-length path is between its steps: within one of them
+    const stepAt = Math.max(x[turn] - x[turn - 1], x[turn] - x[turn + 1])
+    expect(Math.abs(fe.folds[0] - x[turn])).toBeLessThanOrEqual(stepAt + 0.01 * g.apexHeight)
+  })
+
+  it('reports secondSnapPosition with a warning, and the valley on the physical path whatever the sampling', () => {
+    const at = (points: number) => {
+      const fe = solveBistableFe({ ...base, postLength: 1.05 }, FE_ELEMENTS, points)
+      return snapMetrics(fe.displacement, fe.force)
+    }
+    const a = at(101), b = at(67), c = at(151)
+    // the valley is the fold itself, located to the solver's tolerance: 101, 67 or 151 points agree
+    expect(Math.abs(a.valleyForce - b.valleyForce) / a.peakForce).toBeLessThan(1e-3)
+    expect(Math.abs(a.valleyForce - c.valleyForce) / a.peakForce).toBeLessThan(1e-3)
+    const out = evaluate('bistable-beam', { ...base, postLength: 1.05 })
+    const second = out.metrics.secondSnapPosition as number
+    expect(second / base.apexHeight).toBeGreaterThan(1.7)
+    expect(second / base.apexHeight).toBeLessThan(1.95)
+    expect(out.warnings.join(' ')).toMatch(/Second snap: the force–displacement path folds back at/)
+    // the jump is on the curve: two points a sliver apart in displacement, the force rising between them
+    const i = out.curve.displacement.findIndex((d) => Math.abs(d - second) < 1e-9)
+    expect(i).toBeGreaterThan(0)
+    expect(out.curve.displacement[i + 1] - out.curve.displacement[i]).toBeLessThan(1e-3 * base.apexHeight)
+    expect(out.curve.force[i + 1]).toBeGreaterThan(out.curve.force[i])
+    // rigid ends on the same arch do not fold
+    expect(evaluate('bistable-beam', { ...base, postLength: 0 }).metrics.secondSnapPosition).toBeNull()
   })
 })

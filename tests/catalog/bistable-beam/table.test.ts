@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest'
 import { evaluate } from '../../../catalog'
 import { estimateBistable } from '../../../catalog/families/bistable-beam'
-import { bistableFlagBand, bistableTableError, bistableTableTolerance } from '../../../catalog/families/bistable-beam/estimate'
+import { bistableTableError, bistableTableTolerance } from '../../../catalog/families/bistable-beam/estimate'
 import { BISTABLE_MODEL_VERSION } from '../../../catalog/families/bistable-beam/fe-model'
-import { caseErrors, validationCases } from '../../../catalog/families/bistable-beam/table-validation'
-import { nodeMetrics, TABLE_METRICS } from '../../../catalog/families/bistable-beam/table-build'
+import { caseErrors, directMetrics, nearLimit, regionCases, shortPost, validationCases } from '../../../catalog/families/bistable-beam/table-validation'
+import { nodeMetrics, TABLE_METRICS, valuesFingerprint } from '../../../catalog/families/bistable-beam/table-build'
 import { bistableTable } from '../../../catalog/families/bistable-beam/table-store'
 
 const TABLE = bistableTable()
@@ -79,26 +79,53 @@ describe('bistable-beam performance table', () => {
     expect(flips).toBeLessThanOrEqual(2)
   })
 
-  it('the reported tolerance holds on a fresh seeded sample of direct solves inside the family\'s ranges', () => {
-    // the generator measured bistableTableError() on its own held-out sample (another seed);
-    // a fresh sample must agree with it: about a tenth of cases above the 90th percentile (at
-    // most a fifth, binomial slack for ~50 bistable cases), a few above the 99th, none above
-    // 1.5 × the reported largest error
+  it('the reported tolerance holds on a fresh seeded sample of direct solves inside the family\'s ranges (certain estimates, each metric against itself)', () => {
+    // the generator measured bistableTableError() on its own held-out sample (another seed), over
+    // bistable parts whose estimate is not marked uncertain; a fresh sample of those must agree:
+    // at most a fifth above the reported 90th percentile, a few above the 99th, none above
+    // 1.5 × the reported largest error (each error a fraction of the metric itself)
     const { rows, outside, failed } = caseErrors(TABLE, validationCases(11, 150))
     expect(outside, 'valid parameter sets outside the table').toBe(0)
     expect(failed).toBe(0)
-    const bistable = rows.filter((r) => r.bistable)
-    expect(bistable.length).toBeGreaterThanOrEqual(35)
+    const certain = rows.filter((r) => r.bistable && r.uncertain.length === 0)
+    expect(certain.length).toBeGreaterThanOrEqual(15)
     for (const [key, reported] of Object.entries(bistableTableError())) {
-      const observed = bistable.map((r) => r.errors[key]).filter((v) => v !== undefined)
-      expect(observed.length, key).toBeGreaterThanOrEqual(30)
-      expect(observed.filter((v) => v > reported.p90).length / observed.length, `${key} above the reported p90`).toBeLessThanOrEqual(0.2)
+      const observed = certain.map((r) => r.errors[key]).filter((v) => v !== undefined)
+      expect(observed.length, key).toBeGreaterThanOrEqual(10)
+      expect(observed.filter((v) => v > reported.p90).length / observed.length, `${key} above the reported p90`).toBeLessThanOrEqual(0.25)
       expect(observed.filter((v) => v > reported.p99).length, `${key} above the reported p99`).toBeLessThanOrEqual(Math.ceil(0.05 * observed.length))
       expect(Math.max(...observed), `${key} largest error`).toBeLessThanOrEqual(1.5 * reported.max)
       expect(bistableTableTolerance()[key as keyof ReturnType<typeof bistableTableTolerance>]).toBe(reported.max)
     }
-    // the bistable flag: wrong only inside the reported band around the limit
-    for (const r of rows.filter((x) => x.flip)) expect(r.valleyRatio, 'flag flip outside the reported band').toBeLessThanOrEqual(Math.max(bistableFlagBand(), bistableTableTolerance().valleyForce))
+    // the bistable flag: every flip is one the estimate marked uncertain (search judges those exactly)
+    for (const r of rows.filter((x) => x.flip)) expect(r.uncertain.length, `unmarked flip at ${JSON.stringify(r.case)}`).toBeGreaterThan(0)
+  })
+
+  it('near the bistability limit and with short posts (dense fresh samples), every flip of the bistable flag is marked uncertain', () => {
+    const near = caseErrors(TABLE, regionCases(TABLE, 77, 40, nearLimit(TABLE))).rows
+    const posts = caseErrors(TABLE, regionCases(TABLE, 78, 25, shortPost)).rows
+    expect(near.length).toBeGreaterThanOrEqual(35)
+    expect(posts.length).toBeGreaterThanOrEqual(20)
+    for (const r of [...near, ...posts].filter((x) => x.flip)) expect(r.uncertain.length, `unmarked flip at ${JSON.stringify(r.case)}`).toBeGreaterThan(0)
+    // the stored validation counted its flips the same way, over its own dense samples
+    const v = TABLE.validation
+    expect(v.unmarkedFlips).toBe(0)
+    expect(v.regions.nearLimit.cases).toBeGreaterThanOrEqual(250)
+    expect(v.regions.shortPost.cases).toBeGreaterThanOrEqual(250)
+    expect(v.flips, 'flips are counted over the dense regions too').toBeGreaterThanOrEqual(v.regions.nearLimit.flips + v.regions.shortPost.flips)
+  })
+
+  it('the stored validation belongs to the stored table (fingerprint of its values; spot checks re-solved)', () => {
+    // a table regenerated or edited without re-measuring its validation fails here
+    expect(valuesFingerprint(TABLE.values)).toBe(TABLE.validation.fingerprint)
+    expect(TABLE.validation.spotChecks.length).toBeGreaterThanOrEqual(4)
+    for (const spot of TABLE.validation.spotChecks.slice(0, 4)) {
+      const direct = directMetrics(spot.case, 2000, 0.02)!
+      const table = estimateBistable(spot.case, { modulus: 2000, strainLimit: 0.02 })!
+      // the direct solve and the table at the stored case still give the stored valley/peak
+      expect((direct.valleyForce as number) / (direct.peakForce as number)).toBeCloseTo(spot.direct, 5)
+      expect((table.valleyForce as number) / (direct.peakForce as number)).toBeCloseTo(spot.table, 5)
+    }
   })
 
   it('covers the valid parameter sets: at most 0.5 % fall outside, all of them deep arches (apex above 10 % of the span) beside a node the solver could not follow', () => {

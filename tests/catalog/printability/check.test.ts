@@ -5,7 +5,7 @@ import {
   checkPrintability, MAX_PRINTABLE_VALUES, nearest, nearestPrintableHeight, nearestPrintableWall, printableHeights, printableWalls, printerRules,
 } from '../../../catalog/printability'
 
-// Rules under test are common FDM practice (REFERENCES.md §8): flexures at least two
+// Rules under test are common FDM practice (docs/references.md §8): flexures at least two
 // extrusion widths thick, ideally whole perimeters; line width taken as the nozzle width.
 const hook: FamilyDefinition = {
   id: 'test-hook', name: 'Test hook', kind: 'latch', summary: '',

@@ -22,7 +22,7 @@ describe('flexshelf search', () => {
     const observed = await run(['search', '{"kind":"spring","stiffness":{"min":0.2,"max":0.4},"limit":2}'])
     expect(observed.code).toBe(0)
     const answer = JSON.parse(observed.out)
-    expect(Object.keys(answer).sort()).toEqual(['considered', 'elapsedMs', 'explanation', 'results'])
+    expect(Object.keys(answer).sort()).toEqual(['considered', 'dropped', 'elapsedMs', 'explanation', 'results'])
     expect(answer.results[0]).toMatchObject({ family: 'serpentine-spring', entryId: 'serpentine-spring/status-button-return-spring-gateway-g2' })
     for (const key of ['entryId', 'family', 'params', 'metrics', 'band', 'margin', 'confirmed', 'why']) expect(answer.results[0]).toHaveProperty(key)
   })

@@ -31,7 +31,7 @@ describe('corotational beam solver', () => {
     expect(path.stable.slice(first).every((s) => !s)).toBe(true)
   })
 
-  it('large-deflection cantilever matches the elastica tabulation of Bisshopp & Drucker (1945), REFERENCES.md §3', () => {
+  it('large-deflection cantilever matches the elastica tabulation of Bisshopp & Drucker, Quarterly of Applied Mathematics 3(3), 1945', () => {
     const L = 100
     const beam = meshStraight({ x: 0, y: 0 }, { x: L, y: 0 }, 16, section)
     const tip = beam.last
