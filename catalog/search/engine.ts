@@ -28,8 +28,8 @@ import { describeResult } from './why'
 export const DEFAULT_BUDGET = 6000
 /** Results confirmed with the exact method when the options do not say. */
 export const DEFAULT_CONFIRM = 5
-/** Exact checks of uncertain estimates beyond the confirmed results, per search (each is three exact solves). */
-export const UNCERTAIN_CHECKS = 6
+/** Exact checks of uncertain estimates beyond the confirmed results, per search (each solves every wall corner exactly). */
+export const UNCERTAIN_CHECKS = 4
 /** Seeds per entry and material that the local search refines. */
 export const REFINE_SEEDS = 3
 /** Candidates between two checkpoints (progress, cancellation). */
@@ -267,7 +267,8 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     if (confirming || decisive) {
       if (!confirming) uncertainChecks++
       progress(units.length, 'confirming')
-      const check = exactCheck(window, compiled, s.unit.family, s.unit.material, s.params, s.score.nominal ?? {}, tolerance, materials, uncertain)
+      const check = exactCheck(window, compiled, s.unit.family, s.unit.material, s.params, s.score.nominal ?? {}, tolerance, materials, uncertain,
+        decisive || !s.score.low || !s.score.high ? null : { low: s.score.low, high: s.score.high })
       yield
       if (check.contradiction) {
         dropped.push({ entryId: s.unit.entry.id, entryName: s.unit.entry.name, params: { ...s.params, material: s.unit.material.id }, reason: check.contradiction, uncertain })

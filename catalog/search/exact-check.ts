@@ -66,6 +66,13 @@ export function exactCheck(
   window: ForceWindow, compiled: CompiledWindow, family: FamilyDefinition, material: SearchMaterial,
   params: Record<string, number>, nominal: Record<string, MetricValue>, tolerance: ManufacturingTolerance, materials: readonly SearchMaterial[],
   uncertain: string[],
+  /**
+   * The fast band (low/high records) when the estimate is certain: the exact band is then taken
+   * as the fast band shifted by the exact method's difference at the nominal point (one exact
+   * solve; a certain estimate is within the table's small measured error across its band).
+   * Null: every tolerance corner is solved exactly.
+   */
+  fastBand: { low: Record<string, MetricValue>; high: Record<string, MetricValue> } | null = null,
 ): ExactCheck {
   const method = exactMethodOf(family)
   const keys = [...new Set([...compiled.metrics, 'bistable', 'safetyFactor'])]
@@ -108,7 +115,17 @@ export function exactCheck(
     : []
   let band: Band | null = null
   let cornerError: string | null = null
-  for (const ts of tSigns) {
+  if (fastBand) {
+    band = { low: { ...exact }, high: { ...exact } }
+    for (const k of keys) {
+      const lo = fastBand.low[k], hi = fastBand.high[k], f = nominal[k], e = exact[k]
+      if (typeof lo === 'number' && typeof hi === 'number' && typeof f === 'number' && typeof e === 'number') {
+        band.low[k] = Math.min(e, lo + (e - f))
+        band.high[k] = Math.max(e, hi + (e - f))
+      }
+    }
+  }
+  for (const ts of fastBand ? [] : tSigns) {
     let at = exact
     if (ts !== 0) {
       const shifted = { ...params }
