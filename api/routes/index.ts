@@ -11,6 +11,7 @@ import { entriesRouter } from './entries'
 import { familiesRouter } from './families'
 import { healthRouter } from './health'
 import { materialsRouter } from './materials'
+import { oidcRouter } from './oidc'
 import { outboxRouter } from './outbox'
 import { readyRouter } from './ready'
 import { entryReportsRouter, reportsRouter } from './reports'
@@ -26,6 +27,7 @@ export function apiRouters(context: AppContext): Array<{ path: string; router: R
     { path: '/ready', router: readyRouter(context) },
     { path: '/auth', router: authRouter(context) },
     { path: '/auth', router: accountRouter(context) },
+    { path: '/auth/oidc', router: oidcRouter(context) },
     { path: '/users', router: usersRouter(context) },
     { path: '/families', router: familiesRouter(context) },
     { path: '/materials', router: materialsRouter(context) },
