@@ -1,6 +1,6 @@
 /** Resource functions, one per API route the web app uses (docs/api.md). */
 import { request } from './client'
-import type { Entry, EntrySummary, EvaluateRequest, Evaluation, Family, GrantableRole, Material, Session, User } from './types'
+import type { Entry, EntrySummary, EvaluateRequest, Evaluation, Family, GrantableRole, Material, Session, SigninOptions, User } from './types'
 
 export { ApiError, asApiError, isAbort, request, setAuthToken, setUnauthenticatedHandler } from './client'
 export type { FieldIssue } from './client'
@@ -14,6 +14,12 @@ export const authApi = {
     request<Session>('POST', '/api/auth/signup', { body: { email, password, displayName } }),
   signOut: () => request<void>('POST', '/api/auth/signout'),
   me: () => request<{ user: User }>('GET', '/api/auth/me').then((r) => r.user),
+  options: () => request<SigninOptions>('GET', '/api/auth/options'),
+  /** Collects the session a single sign-on left in its hand-over cookie. */
+  ssoSession: () => request<Session>('POST', '/api/auth/oidc/session'),
+  changePassword: (currentPassword: string, newPassword: string) => request<void>('POST', '/api/auth/password', { body: { currentPassword, newPassword } }),
+  requestReset: (email: string) => request<{ status: string; message: string }>('POST', '/api/auth/password-reset', { body: { email } }),
+  confirmReset: (token: string, newPassword: string) => request<void>('POST', '/api/auth/password-reset/confirm', { body: { token, newPassword } }),
 }
 
 export const usersApi = {

@@ -12,6 +12,18 @@ export interface User {
   displayName: string
   role: Role
   createdAt: string
+  /** False for an account that signs in only through single sign-on. */
+  hasPassword?: boolean
+  /** A one-time password is in use; the person must choose their own first. */
+  mustChangePassword?: boolean
+  sso?: boolean
+}
+
+/** What the sign-in screen offers (GET /api/auth/options). */
+export interface SigninOptions {
+  passwordSignin: boolean
+  signup: { open: boolean; domains: string[] }
+  sso: { name: string } | null
 }
 
 export interface Session {

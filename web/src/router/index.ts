@@ -15,6 +15,9 @@ const router = createRouter({
     { path: '/', name: 'shelf', component: ShelfView, meta: { role: 'engineer', title: 'Shelf' } },
     // route level code-splitting: each view below is loaded when it is first visited
     { path: '/signin', name: 'signin', component: () => import('@/views/SignInView.vue'), meta: { public: true, guestOnly: true, title: 'Sign in' } },
+    { path: '/forgot-password', name: 'forgot-password', component: () => import('@/views/ForgotPasswordView.vue'), meta: { public: true, guestOnly: true, title: 'Reset your password' } },
+    { path: '/reset-password', name: 'reset-password', component: () => import('@/views/ResetPasswordView.vue'), meta: { public: true, title: 'Choose a new password' } },
+    { path: '/account/password', name: 'account-password', component: () => import('@/views/AccountPasswordView.vue'), meta: { role: 'engineer', title: 'Password' } },
     { path: '/search', name: 'search', component: () => import('@/views/SearchView.vue'), meta: { role: 'engineer', title: 'Search' } },
     { path: '/entries/:id(\\d+)', name: 'entry', component: () => import('@/views/EntryView.vue'), meta: { role: 'engineer', title: 'Entry' } },
     { path: '/entries/:id(\\d+)/configure', name: 'configure', component: () => import('@/views/ConfigureView.vue'), meta: { role: 'engineer', title: 'Configure' } },
@@ -28,6 +31,7 @@ const router = createRouter({
     { path: '/review', name: 'review', component: () => import('@/views/ReviewQueueView.vue'), meta: { role: 'librarian', title: 'Review' } },
     { path: '/review/:id(\\d+)', name: 'review-entry', component: () => import('@/views/ReviewEntryView.vue'), meta: { role: 'librarian', title: 'Review a proposal' } },
     { path: '/admin/outbox', name: 'admin-outbox', component: () => import('@/views/OutboxView.vue'), meta: { role: 'admin', title: 'Outbox' } },
+    { path: '/admin/audit', name: 'admin-audit', component: () => import('@/views/AdminAuditView.vue'), meta: { role: 'admin', title: 'Audit log' } },
     { path: '/admin/users', name: 'admin-users', component: () => import('@/views/AdminUsersView.vue'), meta: { role: 'admin', title: 'People and roles' } },
     { path: '/forbidden', name: 'forbidden', component: () => import('@/views/ForbiddenView.vue'), meta: { public: true, title: 'Not for your role' } },
     { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true, title: 'Not found' } },
@@ -38,6 +42,8 @@ router.beforeEach(async (to) => {
   const session = useSessionStore()
   await session.restore()
   const decision = decideAccess(to.meta, session.role, to.fullPath)
+  // a one-time password is replaced before anything else (the server refuses the rest too)
+  if (decision.kind === 'allow' && session.user?.mustChangePassword && !to.meta.public && to.name !== 'account-password') return { name: 'account-password' }
   switch (decision.kind) {
     case 'allow': return true
     case 'home': return { name: 'shelf' }

@@ -44,6 +44,16 @@ export const useSessionStore = defineStore('session', () => {
     adopt(await authApi.signIn(email, password))
   }
 
+  /** Finishes a single sign-on: the server hands the session over once. */
+  async function signInWithSso() {
+    adopt(await authApi.ssoSession())
+  }
+
+  /** After the password change the session carries on; the one-time password flag is gone. */
+  function passwordChanged() {
+    if (user.value) user.value = { ...user.value, mustChangePassword: false }
+  }
+
   async function signUp(email: string, password: string, displayName: string) {
     adopt(await authApi.signUp(email, password, displayName))
   }
@@ -60,5 +70,5 @@ export const useSessionStore = defineStore('session', () => {
     return hasRole(role.value, required)
   }
 
-  return { user, token, signedIn, role, restore, signIn, signUp, signOut, can }
+  return { user, token, signedIn, role, restore, signIn, signInWithSso, passwordChanged, signUp, signOut, can }
 })
