@@ -48,6 +48,7 @@ export function oidcRouter(context: AppContext): Router {
 
   /** The web app collects the session once; a bearer token then, like a password sign-in. */
   async function session(req: Request, res: Response) {
+    requireOidc(context)
     const token = readCookie(req, SESSION_COOKIE)
     res.clearCookie(SESSION_COOKIE, { path: '/api/auth/oidc/session' })
     if (!token) throw new HttpError(401, 'unauthenticated', 'no single sign-on is waiting to be collected; sign in again')

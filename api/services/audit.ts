@@ -46,7 +46,7 @@ function toAuditEventView(event: AuditEvent & { actor?: User | null }): AuditEve
 }
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/
-const dayField = (name: string) => z.string().regex(DAY, `${name} must be a date like 2026-03-31`).refine((v) => !Number.isNaN(Date.parse(`${v}T00:00:00Z`)), `${name} is not a calendar date`)
+const dayField = (name: string) => z.string().refine((v) => DAY.test(v) && !Number.isNaN(Date.parse(`${v}T00:00:00Z`)), `${name} must be a date like 2026-03-31`)
 
 /** The audit screen's filters, from the query string: person (as actor or subject), action, dates (UTC days, inclusive). */
 const filterSchema = z.strictObject({

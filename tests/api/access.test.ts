@@ -101,6 +101,11 @@ const ROWS: Row[] = [
     expected: statuses(401, 404, 200, 200, 200),
   },
   { route: 'GET /api/audit', path: () => '/api/audit', expected: statuses(401, 403, 403, 403, 200) },
+  { route: 'GET /api/audit/csv', path: () => '/api/audit/csv', expected: statuses(401, 403, 403, 403, 200) },
+  // single sign-on is off in this app: the flow's routes say so (404)
+  { route: 'GET /api/auth/oidc/start', path: () => '/api/auth/oidc/start', expected: statuses(404, 404, 404, 404, 404) },
+  { route: 'GET /api/auth/oidc/callback', path: () => '/api/auth/oidc/callback?code=x&state=y', expected: statuses(404, 404, 404, 404, 404) },
+  { route: 'POST /api/auth/oidc/session', path: () => '/api/auth/oidc/session', expected: statuses(404, 404, 404, 404, 404) },
   // curation (docs/api.md, "Curation"): a refused caller changes nothing, so the first
   // allowed caller moves the record on and higher roles meet its new status (409)
   {
