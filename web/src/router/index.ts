@@ -22,6 +22,7 @@ const router = createRouter({
     { path: '/entries/:id(\\d+)', name: 'entry', component: () => import('@/views/EntryView.vue'), meta: { role: 'engineer', title: 'Entry' } },
     { path: '/entries/:id(\\d+)/configure', name: 'configure', component: () => import('@/views/ConfigureView.vue'), meta: { role: 'engineer', title: 'Configure' } },
     { path: '/entries/:id(\\d+)/datasheet', name: 'datasheet', component: () => import('@/views/DataSheetView.vue'), meta: { role: 'engineer', title: 'Data sheet' } },
+    { path: '/compare', name: 'compare', component: () => import('@/views/CompareView.vue'), meta: { role: 'engineer', title: 'Compare' } },
     { path: '/configurations', name: 'configurations', component: () => import('@/views/ConfigurationsView.vue'), meta: { role: 'engineer', title: 'My configurations' } },
     { path: '/shared/:token', name: 'shared', component: () => import('@/views/ConfigureView.vue'), meta: { role: 'engineer', title: 'Shared configuration' } },
     { path: '/entries/:id(\\d+)/propose', name: 'propose-change', component: () => import('@/views/ProposeView.vue'), meta: { role: 'contributor', title: 'Propose a change' } },
