@@ -7,6 +7,7 @@
  *
  *   npm run bench:load                              # 3 passes, 5 s per scenario, medians
  *   npm run bench:load -- --duration 10 --runs 5    # longer
+ *   npm run bench:load -- --arrangement             # two instances and two workers (README, "Running on several machines")
  *
  * Targets (issue 8, this 2-core machine): shelf list ≥ 1000 req/s at 50 connections with
  * p99 < 100 ms and no errors. Reports, asserts nothing; README.md "Performance" keeps the
@@ -224,7 +225,12 @@ async function main(): Promise<void> {
   console.log(table(rows))
 }
 
-main().catch((err) => {
-  console.error(err)
-  process.exit(1)
-})
+if (process.argv.includes('--arrangement')) {
+  // several instances and workers on PostgreSQL, Redis and the S3 fake (scripts/bench/arrangement.ts)
+  await import('./bench/arrangement')
+} else {
+  main().catch((err) => {
+    console.error(err)
+    process.exit(1)
+  })
+}

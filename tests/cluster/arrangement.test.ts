@@ -8,7 +8,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, DEMO_USERS } from '../../api/db/demo-shelf'
-import { api, startArrangement, type Arrangement, type Proc } from './support'
+import { api, startArrangement, type Arrangement, type Proc } from '../../scripts/support/arrangement'
 
 let a: Arrangement
 let one: Proc

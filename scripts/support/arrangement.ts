@@ -8,8 +8,8 @@ import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
-import { startFakeS3, type FakeS3 } from '../../scripts/support/fake-s3'
-import { freePort, startPostgresCluster, type PostgresCluster } from '../../scripts/support/postgres-cluster'
+import { startFakeS3, type FakeS3 } from './fake-s3'
+import { freePort, startPostgresCluster, type PostgresCluster } from './postgres-cluster'
 
 const ROOT = resolve(import.meta.dirname, '../..')
 const TSX = join(ROOT, 'node_modules', '.bin', 'tsx')
