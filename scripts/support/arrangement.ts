@@ -12,7 +12,6 @@ import { startFakeS3, type FakeS3 } from './fake-s3'
 import { freePort, startPostgresCluster, type PostgresCluster } from './postgres-cluster'
 
 const ROOT = resolve(import.meta.dirname, '../..')
-const TSX = join(ROOT, 'node_modules', '.bin', 'tsx')
 
 export interface Proc {
   name: string
@@ -33,7 +32,8 @@ export interface Arrangement {
 }
 
 function launch(name: string, script: string, env: Record<string, string>, ready: RegExp, timeoutMs = 60_000): Promise<Proc> {
-  const child = spawn(TSX, [join(ROOT, script)], { cwd: ROOT, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] })
+  // node itself with tsx's loader (not the tsx wrapper), so a SIGKILL reaches the process that holds the jobs
+  const child = spawn(process.execPath, ['--import', 'tsx', join(ROOT, script)], { cwd: ROOT, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] })
   const proc: Proc = { name, child, output: [] }
   return new Promise((resolveReady, reject) => {
     const timer = setTimeout(() => reject(new Error(`${name} did not start in ${timeoutMs} ms:\n${proc.output.join('')}`)), timeoutMs)
