@@ -4,6 +4,7 @@
  * adds one entry to readinessChecks.
  */
 import type { AppContext } from '../context'
+import { jobQueueActive, queueCounts } from './job-queue'
 
 export interface ReadinessCheck {
   name: string
@@ -16,6 +17,8 @@ export const CHECK_TIMEOUT_MS = 2000
 export function readinessChecks(context: AppContext): ReadinessCheck[] {
   return [
     { name: 'database', check: () => context.db.sequelize.query('SELECT 1') },
+    // several instances: the job queue's Redis answers (it counts the waiting and running jobs)
+    ...(jobQueueActive() ? [{ name: 'queue', check: () => queueCounts() }] : []),
   ]
 }
 

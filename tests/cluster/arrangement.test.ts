@@ -42,6 +42,9 @@ describe('two API instances on one PostgreSQL, Redis and bucket', () => {
     const shelves = await Promise.all([one, two].map((p) => api(p.url!, '/api/shelf', token.engineer)))
     expect(shelves[0].body.entries.length).toBeGreaterThan(3)
     expect(shelves[1].body.entries.map((e: { id: number }) => e.id)).toEqual(shelves[0].body.entries.map((e: { id: number }) => e.id))
+    const ready = await api(two.url!, '/api/ready', null)
+    expect(ready.status, JSON.stringify(ready.body)).toBe(200)
+    expect(ready.body.checks.queue.status).toBe('ok')
   })
 
   it('lists on one instance a configuration saved on the other', async () => {
