@@ -3,7 +3,7 @@
  * Order: security headers, JSON body parser, deny-by-default sign-in check, resource routers, JSON 404 for
  * /api, the web app, a JSON 404 for everything else, and the one error handler last.
  */
-import express, { type Express } from 'express'
+import express, { type Express, type RequestHandler } from 'express'
 import type { Logger } from 'pino'
 import type { AppContext } from './context'
 import { authenticate } from './middleware/authenticate'
@@ -21,6 +21,26 @@ export interface AppOptions {
   log?: (err: unknown) => void
   /** The JSON request log (pino); one at config.logLevel on stdout when not given. */
   logger?: Logger
+  /**
+   * Called with every JSON body the API is about to send, its route ('GET /api/entries/:id')
+   * and status; throwing refuses the body (tests hold every answer to the wire contract).
+   */
+  checkResponse?: (route: string, status: number, body: unknown) => void
+}
+
+/** Wraps res.send so each JSON body (res.json sends through it) passes `check` before it goes out. */
+function checkedResponses(check: NonNullable<AppOptions['checkResponse']>): RequestHandler {
+  return (req, res, next) => {
+    const send = res.send.bind(res)
+    res.send = (body?: unknown) => {
+      if (typeof body === 'string' && /application\/json/.test(String(res.get('Content-Type') ?? ''))) {
+        const route = req.route ? `${req.method} ${req.baseUrl}${req.route.path === '/' ? '' : req.route.path}` : `${req.method} ${req.originalUrl.split('?')[0]}`
+        check(route, res.statusCode, JSON.parse(body))
+      }
+      return send(body)
+    }
+    next()
+  }
 }
 
 export function createApp(context: AppContext, options: AppOptions = {}): Express {
@@ -35,6 +55,7 @@ export function createApp(context: AppContext, options: AppOptions = {}): Expres
   const api = express.Router()
   api.use(express.json({ limit: context.config.bodyLimit }))
   api.use(bodyDepth())
+  if (options.checkResponse) api.use(checkedResponses(options.checkResponse))
   api.use(authenticate(context))
   for (const { path, router } of apiRouters(context)) api.use(path, router)
   api.use(notFound)

@@ -8,6 +8,7 @@ import { join } from 'node:path'
 import request from 'supertest'
 import type { Express } from 'express'
 import { createApp, type AppOptions } from '../../api/app'
+import { checkResponse, ContractViolation } from '../../contract'
 import { loadConfig, type Config } from '../../api/config'
 import type { AppContext } from '../../api/context'
 import { openDatabase } from '../../api/db'
@@ -16,6 +17,21 @@ import { seedDemoData, type SeedReport } from '../../api/db/seed'
 import type { Role } from '../../api/roles'
 
 export const TEST_BCRYPT_COST = 4
+
+/**
+ * Every JSON answer of a test app is held to the wire contract (contract/): a body outside it
+ * is refused with a 500 naming the route and the fields, so every API test parses every
+ * route's response it receives. The violations are kept for the test that wants to see them.
+ */
+export const contractViolations: ContractViolation[] = []
+function checkAgainstContract(route: string, status: number, body: unknown) {
+  try {
+    checkResponse(route, status, body)
+  } catch (err) {
+    if (err instanceof ContractViolation) contractViolations.push(err)
+    throw err
+  }
+}
 
 /** True under npm run test:pg (tests/api/setup-database.ts): tests of SQLite files themselves skip there. */
 export const onPostgres = Boolean(process.env.FLEXSHELF_TEST_DATABASE_URL)
@@ -60,7 +76,7 @@ export async function startTestApp(options: TestAppOptions = {}): Promise<TestAp
   const context: AppContext = { config, db }
   const seed = options.seed === false ? null : await seedDemoData(context)
   const logged: unknown[] = []
-  const app = createApp(context, { log: (err) => logged.push(err), ...options.app })
+  const app = createApp(context, { log: (err) => logged.push(err), checkResponse: checkAgainstContract, ...options.app })
   return {
     app, context, dataDir, seed, logged,
     async close() {

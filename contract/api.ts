@@ -1,0 +1,387 @@
+/**
+ * The wire contract of the Flexshelf HTTP API (docs/api.md): every JSON body a route answers,
+ * defined once as a zod schema. The API's services build these shapes, the web client's
+ * `web/src/api` takes its types from here (type-only imports, so the browser bundle carries
+ * no schema), and the API tests parse every answer against `responseContract`.
+ *
+ * The catalog's own result types (an evaluation, a curve, a judgement, a printability report,
+ * a search answer) are already shared source; they appear here as `catalogValue<T>()`, checked
+ * to be objects with the fields the client reads first.
+ */
+import { z } from 'zod'
+import type { CurveComparison } from '../catalog/calibration'
+import type { PrintabilityReport } from '../catalog/printability'
+import type { Curve, Evaluation, MetricSpec, ModuleKind, ParamSpec } from '../catalog/schema/types'
+import type { Confirmation, SearchAnswer, ShelfEntry } from '../catalog/search/types'
+import type { ForceWindow, Judgement } from '../catalog/window'
+
+/** A catalog type on the wire: an object carrying at least `keys`. */
+function catalogValue<T>(what: string, keys: readonly string[]) {
+  return z.custom<T>((v) => typeof v === 'object' && v !== null && keys.every((k) => k in v), { message: `expected ${what} (with ${keys.join(', ')})` })
+}
+
+const isoDate = z.string().refine((s) => !Number.isNaN(Date.parse(s)), 'expected an ISO 8601 date')
+const metricValue = z.union([z.number(), z.boolean(), z.null()])
+const paramValues = z.record(z.string(), z.union([z.number(), z.string()]))
+const paramRanges = z.record(z.string(), z.tuple([z.number(), z.number()]))
+const box = z.object({ x: z.number(), y: z.number(), z: z.number() })
+const revisionRef = z.object({ id: z.number().int(), number: z.number().int() })
+
+export const roles = ['engineer', 'contributor', 'librarian', 'admin'] as const
+export const Role = z.enum(roles)
+export const moduleKinds = ['bistable', 'spring', 'guide', 'hinge', 'latch'] as const satisfies readonly ModuleKind[]
+export const ModuleKindSchema = z.enum(moduleKinds)
+export const entryStatuses = ['draft', 'in_review', 'released', 'retired', 'rejected', 'merged'] as const
+export const EntryStatusSchema = z.enum(entryStatuses)
+
+// ── errors ───────────────────────────────────────────────────────────────────────────
+
+export const FieldIssue = z.object({ field: z.string(), message: z.string() })
+/** Every error answer: { error: { code, message, details } }. */
+export const ErrorBody = z.object({
+  error: z.object({ code: z.string().min(1), message: z.string().min(1), details: z.record(z.string(), z.unknown()).nullable().optional() }),
+})
+
+// ── people ───────────────────────────────────────────────────────────────────────────
+
+export const User = z.object({ id: z.number().int(), email: z.string(), displayName: z.string(), role: Role, createdAt: isoDate })
+export const Session = z.object({ token: z.string().min(1), user: User })
+export const PersonRef = z.object({ id: z.number().int(), displayName: z.string() })
+
+// ── families and materials ───────────────────────────────────────────────────────────
+
+const axisSpec = z.object({ label: z.string(), unit: z.string() })
+const axes = z.object({ displacement: axisSpec, force: axisSpec })
+/** A family as the API sends it: the catalog definition without its functions. */
+export const Family = z.object({
+  id: z.string(),
+  name: z.string(),
+  kind: ModuleKindSchema,
+  summary: z.string(),
+  params: z.array(catalogValue<ParamSpec>('a parameter', ['key', 'label', 'unit', 'default', 'min', 'max', 'step'])),
+  rules: z.array(z.object({ fields: z.array(z.string()) })),
+  methods: z.array(z.object({ id: z.string(), label: z.string(), source: z.string() })),
+  defaultMethod: z.string(),
+  metrics: z.array(catalogValue<MetricSpec>('a metric', ['key', 'label', 'unit'])),
+  axes,
+  cautions: z.array(z.string()),
+  /** The two parameters the design map sweeps first (x across, y up), or null for the map's own choice. */
+  designMap: z.object({ sweep: z.tuple([z.string(), z.string()]) }).nullable(),
+})
+
+export const Material = z.object({
+  id: z.string(), name: z.string(), process: z.string(), modulus: z.number(), strainLimit: z.number(), density: z.number(), notes: z.string(), source: z.string(),
+})
+
+const EvaluationSchema = catalogValue<Evaluation>('an evaluation', ['family', 'method', 'params', 'material', 'curve', 'metrics', 'warnings', 'source'])
+const CurveSchema = catalogValue<Curve>('a curve', ['displacement', 'force'])
+
+// ── entries ──────────────────────────────────────────────────────────────────────────
+
+export const EntrySummary = z.object({
+  id: z.number().int(),
+  familyId: z.string(),
+  /** The family's name, or its id when the family is no longer registered. */
+  familyName: z.string(),
+  /** null when the family is no longer registered. */
+  kind: ModuleKindSchema.nullable(),
+  name: z.string(),
+  summary: z.string(),
+  tags: z.array(z.string()),
+  status: EntryStatusSchema,
+  owner: PersonRef,
+  currentRevision: z.object({ id: z.number().int(), number: z.number().int(), metrics: z.record(z.string(), metricValue) }).nullable(),
+  updatedAt: isoDate,
+})
+
+export const Revision = z.object({
+  id: z.number().int(),
+  number: z.number().int(),
+  createdAt: isoDate,
+  createdBy: PersonRef,
+  params: paramValues,
+  ranges: paramRanges,
+  method: z.string(),
+  curve: CurveSchema,
+  metrics: z.record(z.string(), metricValue),
+  warnings: z.array(z.string()),
+})
+
+export const CommentKind = z.enum(['comment', 'changes_requested', 'rejected'])
+export const EntryComment = z.object({ id: z.number().int(), kind: CommentKind, text: z.string(), author: PersonRef.nullable(), createdAt: isoDate })
+
+export const ReportStatus = z.enum(['submitted', 'accepted', 'rejected'])
+export const ReportComparison = catalogValue<CurveComparison & { revisionId: number; revisionNumber: number; predictedMaterial: { id: string | null; name: string; modulus: number } }>(
+  'a report comparison', ['revisionId', 'revisionNumber', 'predictedMaterial'],
+)
+export const TestReport = z.object({
+  id: z.number().int(),
+  revisionId: z.number().int().nullable(),
+  status: ReportStatus,
+  uploader: PersonRef.nullable(),
+  reviewer: PersonRef.nullable(),
+  originalName: z.string(),
+  hasPhoto: z.boolean(),
+  printer: z.string(),
+  material: z.string(),
+  lot: z.string(),
+  orientation: z.string(),
+  testSpeed: z.number().nullable(),
+  notes: z.string(),
+  reviewNote: z.string(),
+  reviewedAt: isoDate.nullable(),
+  measuredCurve: z.object({ displacement: z.array(z.number()), force: z.array(z.number()) }),
+  createdAt: isoDate,
+  comparison: ReportComparison.nullable(),
+  comparisonProblem: z.string().nullable(),
+})
+export const TestReportWithEntry = TestReport.extend({ entry: z.object({ id: z.number().int(), name: z.string(), familyId: z.string() }) })
+
+export const EntryDetail = EntrySummary.extend({
+  defaultParams: paramValues,
+  ranges: paramRanges,
+  materials: z.array(z.string()),
+  notes: z.string(),
+  revisions: z.array(Revision),
+  proposalForId: z.number().int().nullable(),
+  reports: z.array(TestReport),
+  comments: z.array(EntryComment),
+  proposalFor: z.object({ id: z.number().int(), name: z.string(), status: EntryStatusSchema, currentRevisionId: z.number().int().nullable() }).nullable(),
+  proposals: z.array(EntrySummary.extend({ proposalForId: z.number().int().nullable() })),
+})
+
+function diffRow<T extends z.ZodType>(value: T) {
+  return z.object({ key: z.string(), label: z.string(), unit: z.string(), a: value.nullable(), b: value.nullable(), changed: z.boolean() })
+}
+const paramDiffRow = diffRow(z.union([z.number(), z.string()]))
+const rangeDiffRow = diffRow(z.tuple([z.number(), z.number()]))
+const metricDiffRow = diffRow(metricValue).extend({ difference: z.number().nullable() })
+
+export const EntryDiff = z.object({
+  entryId: z.number().int(),
+  against: z.object({ id: z.number().int(), number: z.number().int(), entryId: z.number().int() }).nullable(),
+  params: z.array(paramDiffRow),
+  ranges: z.array(rangeDiffRow),
+  metrics: z.array(metricDiffRow),
+  fields: z.array(z.object({ field: z.enum(['name', 'summary', 'tags', 'materials', 'notes']), a: z.unknown(), b: z.unknown(), changed: z.boolean() })),
+  curves: z.object({ a: CurveSchema.nullable(), b: CurveSchema.nullable() }),
+  method: z.string().nullable(),
+  warnings: z.array(z.string()),
+  evaluationProblem: z.string().nullable(),
+})
+
+export const RevisionComparison = z.object({
+  entryId: z.number().int(), a: Revision, b: Revision, params: z.array(paramDiffRow), ranges: z.array(rangeDiffRow), metrics: z.array(metricDiffRow),
+})
+
+export const CalibrationGroup = z.object({
+  printer: z.string(), material: z.string(), count: z.number().int(), moduli: z.array(z.object({ reportId: z.number().int(), modulus: z.number() })),
+  mean: z.number(), standardDeviation: z.number().nullable(), range: z.number(), min: z.number(), max: z.number(),
+})
+export const EntryCalibration = z.object({
+  entryId: z.number().int(),
+  groups: z.array(CalibrationGroup),
+  reports: z.array(z.object({
+    reportId: z.number().int(), revisionId: z.number().int().nullable(), printer: z.string(), material: z.string(), lot: z.string(),
+    modulus: z.number(), predictedModulus: z.number(), predictedMaterial: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number() }),
+  })),
+  unfitted: z.array(z.object({ reportId: z.number().int(), reason: z.string() })),
+})
+
+export const ReviewQueue = z.object({ entries: z.array(z.object({ entry: EntryDetail, diff: EntryDiff })), reports: z.array(TestReportWithEntry) })
+
+export const OutboxMessage = z.object({
+  id: z.number().int(), to: z.array(z.string()), subject: z.string(), text: z.string(), at: isoDate, transport: z.string(), status: z.string(), error: z.string().nullable(),
+})
+
+export const AuditEvent = z.object({
+  id: z.number().int(), at: isoDate, actor: PersonRef.nullable(), action: z.string(), subjectType: z.string(), subjectId: z.string().nullable(), details: z.record(z.string(), z.unknown()).nullable(),
+})
+
+// ── configure ────────────────────────────────────────────────────────────────────────
+
+export const ToleranceSetting = z.object({
+  /** ± wall thickness, mm. */
+  thickness: z.number(),
+  /** ± modulus as a fraction (0.1 = ±10 %). */
+  modulus: z.number(),
+})
+export const PrinterSetting = z.object({ nozzle: z.number(), layer: z.number() })
+const ForceWindowSchema = catalogValue<ForceWindow>('a force window', ['kind'])
+const JudgementSchema = catalogValue<Judgement>('a judgement', ['verdict', 'constraints'])
+const PrintabilitySchema = catalogValue<PrintabilityReport & { basis: string }>('a printability report', ['printer', 'checks', 'basis'])
+
+export const BandView = z.object({
+  tolerance: ToleranceSetting,
+  /** True when no tolerance was given and the common-practice default was used. */
+  defaulted: z.boolean(),
+  note: z.string().nullable(),
+  curve: z.object({ displacement: z.array(z.number()), low: z.array(z.number()), high: z.array(z.number()) }),
+  metrics: z.record(z.string(), z.tuple([z.number(), z.number()]).nullable()),
+  complete: z.boolean(),
+  warnings: z.array(z.string()),
+})
+
+export const CheckResult = z.object({
+  entry: z.object({ id: z.number().int(), name: z.string(), status: z.string(), familyId: z.string(), familyName: z.string(), revision: revisionRef.nullable() }),
+  evaluation: EvaluationSchema,
+  band: BandView,
+  verdict: z.object({ nominal: JudgementSchema, band: JudgementSchema }).nullable(),
+  printability: PrintabilitySchema,
+  /** Outer size of the part, mm (x along, y across, z print height). */
+  envelope: box,
+  notices: z.array(z.string()),
+})
+
+const range = { id: z.string(), label: z.string(), min: z.number().nullable(), max: z.number().nullable() }
+/** A force window drawn on the curve, in the curve's own units. */
+export const WindowOverlay = z.discriminatedUnion('kind', [
+  /** A horizontal band of force (either side may be open). */
+  z.object({ kind: z.literal('force-range'), ...range }),
+  /** A vertical band of displacement or rotation. */
+  z.object({ kind: z.literal('displacement-range'), ...range }),
+  /** Lines through the origin: force per unit displacement (moment per degree for hinges). */
+  z.object({ kind: z.literal('slope-range'), ...range }),
+])
+export const CurveMarker = z.object({ kind: z.enum(['stable', 'unstable']), label: z.string(), displacement: z.number(), force: z.number() })
+export const DatasheetMetric = z.object({
+  key: z.string(), label: z.string(), unit: z.string(), value: metricValue,
+  /** [low, high] over the tolerance band; null when a corner has no value or the metric is a flag. */
+  band: z.tuple([z.number(), z.number()]).nullable(),
+})
+
+export const Datasheet = z.object({
+  title: z.string(),
+  /** When the sheet was made (ISO 8601) and the same as a date (YYYY-MM-DD, UTC). */
+  generatedAt: isoDate,
+  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/),
+  /** Name of the PDF download. */
+  fileName: z.string(),
+  entry: z.object({ id: z.number().int(), name: z.string(), summary: z.string(), status: z.string(), revision: revisionRef.nullable() }),
+  family: z.object({ id: z.string(), name: z.string(), kind: z.string() }),
+  /** The saved configuration the sheet was made from, when it was. */
+  configuration: z.object({ id: z.number().int(), name: z.string() }).nullable(),
+  parameters: z.array(z.object({ key: z.string(), label: z.string(), value: z.number(), unit: z.string() })),
+  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number(), source: z.string() }),
+  method: z.object({ id: z.string(), label: z.string(), source: z.string() }),
+  curve: z.object({ axes, displacement: z.array(z.number()), force: z.array(z.number()), band: BandView, window: z.array(WindowOverlay), markers: z.array(CurveMarker) }),
+  metrics: z.array(DatasheetMetric),
+  verdict: z.object({ window: ForceWindowSchema, nominal: JudgementSchema, band: JudgementSchema }).nullable(),
+  printability: PrintabilitySchema,
+  envelope: box,
+  warnings: z.array(z.string()),
+  cautions: z.array(z.string()),
+  notices: z.array(z.string()),
+})
+
+export const SavedConfiguration = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  owner: PersonRef,
+  entry: z.object({ id: z.number().int(), name: z.string(), familyId: z.string(), status: z.string() }),
+  params: paramValues,
+  method: z.string().nullable(),
+  window: ForceWindowSchema.nullable(),
+  tolerance: ToleranceSetting.nullable(),
+  printer: PrinterSetting.partial().nullable(),
+  /** The revision the configuration was saved from. */
+  savedRevision: revisionRef.nullable(),
+  /** The entry's revision now. */
+  currentRevision: revisionRef.nullable(),
+  /** True when the entry has a newer revision than the one this was saved from. */
+  revisionChanged: z.boolean(),
+  /** Both null unless shared, and always null through a share link. */
+  shareToken: z.string().nullable(),
+  shareUrl: z.string().nullable(),
+  /** True when opened through a share link. */
+  readOnly: z.boolean(),
+  /** Saved values no longer accepted (bounds tightened since), by field; empty when it checks as saved. */
+  problems: z.array(FieldIssue),
+  notices: z.array(z.string()),
+  createdAt: isoDate,
+  updatedAt: isoDate,
+})
+
+// ── search ───────────────────────────────────────────────────────────────────────────
+
+const ShelfEntrySchema = catalogValue<ShelfEntry>('a shelf entry', ['id', 'familyId', 'name', 'materials', 'defaultParams', 'ranges', 'status'])
+const SearchResultSchema = z.object({
+  entryId: z.union([z.number(), z.string()]),
+  entryName: z.string(),
+  family: z.string(),
+  params: paramValues,
+  metrics: z.record(z.string(), metricValue),
+  band: z.record(z.string(), z.tuple([z.number(), z.number()]).nullable()),
+  margin: z.number(),
+  safetyFactor: z.number().nullable(),
+  method: z.string(),
+  confirmed: catalogValue<Confirmation>('a confirmation', ['method', 'metrics', 'agreement']).nullable(),
+  why: z.string(),
+})
+export const SearchAnswerSchema = z.object({
+  results: z.array(SearchResultSchema), considered: z.number(), elapsedMs: z.number(), explanation: z.string(),
+}) satisfies z.ZodType<SearchAnswer>
+export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum(['running', 'done']), cached: z.boolean() })
+
+// ── every route's answer ─────────────────────────────────────────────────────────────
+
+const entryBody = z.object({ entry: EntryDetail })
+const reportBody = z.object({ report: TestReportWithEntry })
+const configurationBody = z.object({ configuration: SavedConfiguration })
+const datasheetBody = z.object({ datasheet: Datasheet })
+
+/**
+ * The JSON answer of each route ('METHOD /api/path' as Express names it) when it succeeds;
+ * any failure answers ErrorBody. Routes answering files (STL, CSV, PDF, photos), an event
+ * stream or an empty 204 have no JSON body and no row.
+ */
+export const responseContract = {
+  'GET /api/health': z.object({ status: z.string(), version: z.string(), database: z.string() }),
+  'POST /api/auth/signup': Session,
+  'POST /api/auth/signin': Session,
+  'GET /api/auth/me': z.object({ user: User }),
+  'GET /api/users': z.object({ users: z.array(User) }),
+  'PATCH /api/users/:id/role': z.object({ user: User }),
+  'POST /api/users/:id/unlock': z.object({ user: User, cleared: z.number().int().nonnegative() }),
+  'GET /api/families': z.object({ families: z.array(Family) }),
+  'GET /api/families/:id': z.object({ family: Family }),
+  'POST /api/families/:id/evaluate': EvaluationSchema,
+  'GET /api/materials': z.object({ materials: z.array(Material) }),
+  'GET /api/shelf': z.object({ entries: z.array(ShelfEntrySchema) }),
+  'GET /api/entries': z.object({ entries: z.array(EntrySummary) }),
+  'GET /api/entries/:id': entryBody,
+  'POST /api/entries': entryBody,
+  'PATCH /api/entries/:id': entryBody,
+  'POST /api/entries/:id/proposals': entryBody,
+  'POST /api/entries/:id/submit': entryBody,
+  'POST /api/entries/:id/release': entryBody,
+  'POST /api/entries/:id/reject': entryBody,
+  'POST /api/entries/:id/request-changes': entryBody,
+  'POST /api/entries/:id/retire': entryBody,
+  'POST /api/entries/:id/comments': z.object({ comment: EntryComment }),
+  'GET /api/entries/:id/diff': z.object({ diff: EntryDiff }),
+  'GET /api/entries/:id/revisions/compare': z.object({ comparison: RevisionComparison }),
+  'POST /api/entries/:id/check': CheckResult,
+  'GET /api/entries/:id/datasheet': datasheetBody,
+  'GET /api/entries/:id/calibration': z.object({ calibration: EntryCalibration }),
+  'POST /api/entries/:id/reports': reportBody,
+  'POST /api/reports/:id/accept': reportBody,
+  'POST /api/reports/:id/reject': reportBody,
+  'POST /api/reports/:id/adopt-modulus': z.object({ material: Material }),
+  'GET /api/review-queue': ReviewQueue,
+  'GET /api/outbox': z.object({ messages: z.array(OutboxMessage) }),
+  'GET /api/audit': z.object({ events: z.array(AuditEvent) }),
+  'GET /api/configurations': z.object({ configurations: z.array(SavedConfiguration) }),
+  'POST /api/configurations': configurationBody,
+  'GET /api/configurations/:id': configurationBody,
+  'GET /api/configurations/:id/check': CheckResult,
+  'GET /api/configurations/:id/datasheet': datasheetBody,
+  'POST /api/configurations/:id/share': z.object({ shareToken: z.string().min(1), url: z.string().min(1) }),
+  'GET /api/shared/:token': configurationBody,
+  'GET /api/shared/:token/check': CheckResult,
+  'GET /api/shared/:token/datasheet': datasheetBody,
+  'POST /api/search': SearchAnswerSchema.extend({ cached: z.boolean().optional() }),
+  'POST /api/searches': SearchJobStart,
+} as const satisfies Record<string, z.ZodType>
+
+export type ContractRoute = keyof typeof responseContract

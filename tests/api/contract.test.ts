@@ -1,0 +1,67 @@
+/**
+ * The wire contract (contract/api.ts): every JSON route has its answer's schema, and the check
+ * every test app runs on every answer (helpers.ts) refuses a body outside it, naming the field.
+ */
+import type { Express } from 'express'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { checkResponse, ContractViolation, responseContract } from '../../contract'
+import { toFamilyView } from '../../api/services/families'
+import { getFamily } from '../../catalog'
+import { startTestApp, type TestApp } from './helpers'
+
+/** Routes that answer a file (a model, a drawing, a CSV, a PDF, an upload), an event stream or an empty 204, never a JSON body. */
+const FILE_OR_STREAM = /\/(stl|3mf|dxf|svg|curve\.csv|datasheet\.pdf|file|photo|events)$/
+const EMPTY_ANSWER = new Set(['POST /api/auth/signout', 'DELETE /api/searches/:id', 'DELETE /api/configurations/:id', 'DELETE /api/configurations/:id/share'])
+const withoutJsonBody = (route: string) => EMPTY_ANSWER.has(route) || (route.startsWith('GET ') && FILE_OR_STREAM.test(route))
+
+interface Layer { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; rawPath?: unknown }
+
+function registeredRoutes(app: Express): string[] {
+  const found: string[] = []
+  const join = (...parts: string[]) => parts.join('').replace(/\/{2,}/g, '/').replace(/(.)\/$/, '$1')
+  const walk = (stack: Layer[], prefix: string) => {
+    for (const layer of stack) {
+      if (layer.route) for (const m of Object.keys(layer.route.methods)) { if (m !== '_all') found.push(`${m.toUpperCase()} ${join(prefix, layer.route.path)}`) }
+      else if (layer.handle?.stack) walk(layer.handle.stack, join(prefix, typeof layer.rawPath === 'string' ? layer.rawPath : ''))
+    }
+  }
+  walk((app as unknown as { router: { stack: Layer[] } }).router.stack, '')
+  return found.filter((r) => r.split(' ')[1].startsWith('/api'))
+}
+
+let t: TestApp
+beforeAll(async () => { t = await startTestApp({ seed: false }) })
+afterAll(() => t.close())
+
+describe('the wire contract', () => {
+  it('has a schema for every JSON route the app registers, and none for a route it does not', () => {
+    const routes = registeredRoutes(t.app)
+    expect(routes.length).toBeGreaterThan(40)
+    expect(routes.filter((r) => !withoutJsonBody(r) && !(r in responseContract)), 'JSON routes without a schema').toEqual([])
+    expect(Object.keys(responseContract).filter((r) => !routes.includes(r)), 'schemas for routes that do not exist').toEqual([])
+  })
+
+  it('takes the family list the API builds', () => {
+    const family = toFamilyView(getFamily('bistable-beam'))
+    expect(() => checkResponse('GET /api/families/:id', 200, { family })).not.toThrow()
+  })
+
+  it('refuses a body that leaves the contract, naming the field', () => {
+    const family = toFamilyView(getFamily('bistable-beam'))
+    const wrong = { family: { ...family, kind: 'gearbox' } }
+    expect(() => checkResponse('GET /api/families/:id', 200, wrong)).toThrow(ContractViolation)
+    expect(() => checkResponse('GET /api/families/:id', 200, wrong)).toThrow(/family\.kind/)
+    const { cautions: _dropped, ...withoutCautions } = family
+    expect(() => checkResponse('GET /api/families/:id', 200, { family: withoutCautions })).toThrow(/family\.cautions/)
+    expect(() => checkResponse('GET /api/auth/me', 200, { user: { id: 1, email: 'a@b.example', displayName: 'A', role: 'owner', createdAt: '2026-01-01T00:00:00Z' } })).toThrow(/user\.role/)
+  })
+
+  it('holds every failure to the one error body', () => {
+    expect(() => checkResponse('GET /api/families/:id', 404, { error: { code: 'not_found', message: 'module family "x" not found', details: null } })).not.toThrow()
+    expect(() => checkResponse('GET /api/families/:id', 404, { message: 'not found' })).toThrow(/error/)
+  })
+
+  it('refuses an answer from a route it has no schema for', () => {
+    expect(() => checkResponse('GET /api/unheard-of', 200, {})).toThrow(/no schema for this route/)
+  })
+})
