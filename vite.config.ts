@@ -11,6 +11,7 @@ export default defineConfig({
     alias: {
       '@': fileURLToPath(new URL('./web/src', import.meta.url)),
       '@catalog': fileURLToPath(new URL('./catalog', import.meta.url)),
+      '@contract': fileURLToPath(new URL('./contract', import.meta.url)),
     },
   },
   // module workers: the bistable table (table-data.json) stays its own chunk, fetched on first use

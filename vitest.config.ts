@@ -5,6 +5,7 @@ import vue from '@vitejs/plugin-vue'
 const alias = {
   '@': fileURLToPath(new URL('./web/src', import.meta.url)),
   '@catalog': fileURLToPath(new URL('./catalog', import.meta.url)),
+  '@contract': fileURLToPath(new URL('./contract', import.meta.url)),
 }
 
 export default defineConfig({

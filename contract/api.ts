@@ -44,7 +44,10 @@ export const ErrorBody = z.object({
 
 // ── people ───────────────────────────────────────────────────────────────────────────
 
-export const User = z.object({ id: z.number().int(), email: z.string(), displayName: z.string(), role: Role, createdAt: isoDate })
+export const User = z.object({
+  id: z.number().int(), email: z.string(), displayName: z.string(), role: Role, createdAt: isoDate,
+  hasPassword: z.boolean().optional(), mustChangePassword: z.boolean().optional(), sso: z.boolean().optional(),
+})
 export const Session = z.object({ token: z.string().min(1), user: User })
 export const PersonRef = z.object({ id: z.number().int(), displayName: z.string() })
 
@@ -130,7 +133,10 @@ export const TestReport = z.object({
   notes: z.string(),
   reviewNote: z.string(),
   reviewedAt: isoDate.nullable(),
+  /** A preview of at most 400 points (peaks kept) for drawing; the whole curve: GET /api/reports/:id/curve. */
   measuredCurve: z.object({ displacement: z.array(z.number()), force: z.array(z.number()) }),
+  /** Points in the whole measured curve. */
+  points: z.number().int().nonnegative(),
   createdAt: isoDate,
   comparison: ReportComparison.nullable(),
   comparisonProblem: z.string().nullable(),
@@ -188,7 +194,12 @@ export const EntryCalibration = z.object({
   unfitted: z.array(z.object({ reportId: z.number().int(), reason: z.string() })),
 })
 
-export const ReviewQueue = z.object({ entries: z.array(z.object({ entry: EntryDetail, diff: EntryDiff })), reports: z.array(TestReportWithEntry) })
+export const ReviewQueue = z.object({
+  entries: z.array(z.object({ entry: EntryDetail, diff: EntryDiff })),
+  reports: z.array(TestReportWithEntry),
+  /** The page shown (limit, offset) and how many wait in all. */
+  page: z.object({ limit: z.number().int(), offset: z.number().int(), totalEntries: z.number().int(), totalReports: z.number().int() }),
+})
 
 export const OutboxMessage = z.object({
   id: z.number().int(), to: z.array(z.string()), subject: z.string(), text: z.string(), at: isoDate, transport: z.string(), status: z.string(), error: z.string().nullable(),

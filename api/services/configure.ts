@@ -3,11 +3,12 @@
  * at the manufacturing-tolerance corners, the verdict against the engineer's force window
  * (nominal and whole band) and the printability checks. Every number comes from catalog/.
  */
+import type { z } from 'zod'
+import type * as contract from '../../contract/api'
 import { Op } from 'sequelize'
 import type { Evaluation, FamilyDefinition } from '../../catalog'
-import type { PrintabilityReport } from '../../catalog/printability'
 import { DEFAULT_TOLERANCE_NOTE, type ToleranceBand } from '../../catalog/tolerance'
-import { judgeWithBand, type Judgement } from '../../catalog/window'
+import { judgeWithBand } from '../../catalog/window'
 import type { AppContext } from '../context'
 import type { Entry, EntryRevision, ParamRanges, ParamValues, User } from '../db'
 import { notFound } from '../errors'
@@ -89,28 +90,9 @@ export function askedOf(target: ConfigureTarget, input: ConfigurationInput, purp
   return `${purpose} of entry ${target.entry.id} "${target.entry.name}" (${target.family.id}${method})`
 }
 
-export interface BandView {
-  /** ± wall thickness in mm and ± modulus as a fraction (0.1 = ±10 %). */
-  tolerance: { thickness: number; modulus: number }
-  /** True when no tolerance was given and the common-practice default was used. */
-  defaulted: boolean
-  note: string | null
-  curve: { displacement: number[]; low: number[]; high: number[] }
-  metrics: Record<string, [number, number] | null>
-  complete: boolean
-  warnings: string[]
-}
-
-export interface CheckResult {
-  entry: { id: number; name: string; status: string; familyId: string; familyName: string; revision: { id: number; number: number } | null }
-  evaluation: Evaluation
-  band: BandView
-  verdict: { nominal: Judgement; band: Judgement } | null
-  printability: PrintabilityReport & { basis: string }
-  /** Outer size of the part, mm (x along, y across, z print height). */
-  envelope: { x: number; y: number; z: number }
-  notices: string[]
-}
+// The answers' shapes are the wire contract's (contract/api.ts).
+export type BandView = z.infer<typeof contract.BandView>
+export type CheckResult = z.infer<typeof contract.CheckResult>
 
 export const PRINTABILITY_BASIS = 'common practice (FDM rules of thumb, not a published standard)'
 

@@ -2,11 +2,13 @@
  * The data sheet of a configuration, as sections of plain data. The web app's printable page
  * and the PDF (datasheet-pdf.ts) are both drawn from this one builder, so they cannot disagree.
  */
+import type { z } from 'zod'
+import type * as contract from '../../contract/api'
 import type { FamilyDefinition, MetricValue } from '../../catalog'
 import { valuesAt } from '../../catalog/tolerance'
-import type { ForceWindow, Judgement } from '../../catalog/window'
+import type { ForceWindow } from '../../catalog/window'
 import type { ConfigurationInput } from './configuration-input'
-import { checkTarget, type BandView, type ConfigureTarget } from './configure'
+import { checkTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
 
 /** Said on every data sheet, whatever the family (DESIGN.md: the usual cautions). */
@@ -16,61 +18,11 @@ export const DATASHEET_CAUTIONS: readonly string[] = Object.freeze([
   'Where a failure of the part could hurt someone, follow the applicable codes and standards and have the design reviewed by a qualified engineer.',
 ])
 
-/** A force window drawn on the curve, in the curve's own units. */
-export type WindowOverlay =
-  /** A horizontal band of force (either side may be open). */
-  | { kind: 'force-range'; id: string; label: string; min: number | null; max: number | null }
-  /** A vertical band of displacement or rotation. */
-  | { kind: 'displacement-range'; id: string; label: string; min: number | null; max: number | null }
-  /** Lines through the origin: force per unit displacement (moment per degree for hinges). */
-  | { kind: 'slope-range'; id: string; label: string; min: number | null; max: number | null }
-
-export interface CurveMarker {
-  kind: 'stable' | 'unstable'
-  label: string
-  displacement: number
-  force: number
-}
-
-export interface DatasheetMetric {
-  key: string
-  label: string
-  unit: string
-  value: MetricValue
-  /** [low, high] over the tolerance band; null when a corner has no value or the metric is a flag. */
-  band: [number, number] | null
-}
-
-export interface Datasheet {
-  title: string
-  /** When the sheet was made (ISO 8601) and the same as a date (YYYY-MM-DD, UTC). */
-  generatedAt: string
-  date: string
-  /** Name of the PDF download. */
-  fileName: string
-  entry: { id: number; name: string; summary: string; status: string; revision: { id: number; number: number } | null }
-  family: { id: string; name: string; kind: string }
-  /** The saved configuration the sheet was made from, when it was. */
-  configuration: { id: number; name: string } | null
-  parameters: Array<{ key: string; label: string; value: number; unit: string }>
-  material: { id: string | null; name: string; modulus: number; strainLimit: number; source: string }
-  method: { id: string; label: string; source: string }
-  curve: {
-    axes: { displacement: { label: string; unit: string }; force: { label: string; unit: string } }
-    displacement: number[]
-    force: number[]
-    band: BandView
-    window: WindowOverlay[]
-    markers: CurveMarker[]
-  }
-  metrics: DatasheetMetric[]
-  verdict: { window: ForceWindow; nominal: Judgement; band: Judgement } | null
-  printability: Awaited<ReturnType<typeof checkTarget>>['printability']
-  envelope: { x: number; y: number; z: number }
-  warnings: string[]
-  cautions: string[]
-  notices: string[]
-}
+// The answers' shapes are the wire contract's (contract/api.ts).
+export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
+export type CurveMarker = z.infer<typeof contract.CurveMarker>
+export type DatasheetMetric = z.infer<typeof contract.DatasheetMetric>
+export type Datasheet = z.infer<typeof contract.Datasheet>
 
 const RAD_PER_DEG = Math.PI / 180
 

@@ -1,8 +1,10 @@
 /** The catalog's family definitions as JSON (everything but the functions). */
+import type { z } from 'zod'
+import type * as contract from '../../contract/api'
 import { families, getFamily, UnknownFamilyError, type FamilyDefinition } from '../../catalog'
 import { notFound } from '../errors'
 
-export function toFamilyView(family: FamilyDefinition) {
+export function toFamilyView(family: FamilyDefinition): FamilyView {
   return {
     id: family.id,
     name: family.name,
@@ -19,7 +21,8 @@ export function toFamilyView(family: FamilyDefinition) {
   }
 }
 
-export type FamilyView = ReturnType<typeof toFamilyView>
+/** The wire contract's family (contract/api.ts). */
+export type FamilyView = z.infer<typeof contract.Family>
 
 export function listFamilies(): FamilyView[] {
   return families.map(toFamilyView)

@@ -131,7 +131,7 @@ export interface FamilyDesignMap {
    * The two parameters engineers sweep first, across (x) and up (y); the map falls back to the
    * first continuous parameter across and the wall thickness up when either is fixed by the entry.
    */
-  sweep: readonly [x: string, y: string]
+  sweep: [x: string, y: string]
 }
 
 export interface FamilyTolerance {

@@ -3,24 +3,22 @@
  * downloads and the engineer's saved configurations. Shapes follow api/services/configure.ts,
  * datasheet.ts and docs/api.md; the catalog's own types are shared where the server sends them.
  */
+import type { z } from 'zod'
+import type * as contract from '@contract/api'
 import { ApiError, parseErrorBody, request } from './client'
-import type { Evaluation } from './types'
 import type { ForceWindow, Judgement } from '@catalog/window'
 import type { PrintabilityReport } from '@catalog/printability'
 
 export type { ForceWindow, Judgement, PrintabilityReport }
 
-export interface ToleranceSetting {
-  /** ± wall thickness, mm. */
-  thickness: number
-  /** ± modulus as a fraction (0.1 = ±10 %). */
-  modulus: number
-}
-
-export interface PrinterSetting {
-  nozzle: number
-  layer: number
-}
+// The answers' shapes come from the wire contract (contract/api.ts), type-only.
+export type ToleranceSetting = z.infer<typeof contract.ToleranceSetting>
+export type PrinterSetting = z.infer<typeof contract.PrinterSetting>
+export type BandView = z.infer<typeof contract.BandView>
+export type CheckResult = z.infer<typeof contract.CheckResult>
+export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
+export type Datasheet = z.infer<typeof contract.Datasheet>
+export type SavedConfiguration = z.infer<typeof contract.SavedConfiguration>
 
 /** What an engineer configures against an entry; the body of the check and save routes. */
 export interface Configuration {
@@ -29,88 +27,6 @@ export interface Configuration {
   window?: ForceWindow | null
   tolerance?: ToleranceSetting | null
   printer?: PrinterSetting | null
-}
-
-export interface BandView {
-  tolerance: ToleranceSetting
-  /** True when no tolerance was given and the common-practice default was used. */
-  defaulted: boolean
-  note: string | null
-  curve: { displacement: number[]; low: number[]; high: number[] }
-  metrics: Record<string, [number, number] | null>
-  complete: boolean
-  warnings: string[]
-}
-
-export interface CheckResult {
-  entry: { id: number; name: string; status: string; familyId: string; familyName: string; revision: { id: number; number: number } | null }
-  evaluation: Evaluation
-  band: BandView
-  verdict: { nominal: Judgement; band: Judgement } | null
-  printability: PrintabilityReport & { basis: string }
-  envelope: { x: number; y: number; z: number }
-  notices: string[]
-}
-
-export type WindowOverlay =
-  | { kind: 'force-range'; id: string; label: string; min: number | null; max: number | null }
-  | { kind: 'displacement-range'; id: string; label: string; min: number | null; max: number | null }
-  | { kind: 'slope-range'; id: string; label: string; min: number | null; max: number | null }
-
-export interface Datasheet {
-  title: string
-  generatedAt: string
-  date: string
-  fileName: string
-  entry: { id: number; name: string; summary: string; status: string; revision: { id: number; number: number } | null }
-  family: { id: string; name: string; kind: string }
-  configuration: { id: number; name: string } | null
-  parameters: Array<{ key: string; label: string; value: number; unit: string }>
-  material: { id: string | null; name: string; modulus: number; strainLimit: number; source: string }
-  method: { id: string; label: string; source: string }
-  curve: {
-    axes: { displacement: { label: string; unit: string }; force: { label: string; unit: string } }
-    displacement: number[]
-    force: number[]
-    band: BandView
-    window: WindowOverlay[]
-    markers: Array<{ kind: 'stable' | 'unstable'; label: string; displacement: number; force: number }>
-  }
-  metrics: Array<{ key: string; label: string; unit: string; value: number | boolean | null; band: [number, number] | null }>
-  verdict: { window: ForceWindow; nominal: Judgement; band: Judgement } | null
-  printability: PrintabilityReport & { basis: string }
-  envelope: { x: number; y: number; z: number }
-  warnings: string[]
-  cautions: string[]
-  notices: string[]
-}
-
-export interface SavedConfiguration {
-  id: number
-  name: string
-  owner: { id: number; displayName: string }
-  entry: { id: number; name: string; familyId: string; status: string }
-  params: Record<string, number | string>
-  method: string | null
-  window: ForceWindow | null
-  tolerance: ToleranceSetting | null
-  printer: PrinterSetting | null
-  /** The revision the configuration was saved from. */
-  savedRevision: { id: number; number: number } | null
-  /** The entry's revision now. */
-  currentRevision: { id: number; number: number } | null
-  /** True when the entry has a newer revision than the one this was saved from. */
-  revisionChanged: boolean
-  /** Both null unless shared, and always null through a share link. */
-  shareToken: string | null
-  shareUrl: string | null
-  /** True when opened through a share link. */
-  readOnly: boolean
-  /** Saved values no longer accepted (bounds tightened since), by field; empty when it checks as saved. */
-  problems: Array<{ field: string; message: string }>
-  notices: string[]
-  createdAt: string
-  updatedAt: string
 }
 
 /** The query of a download or data-sheet link: JSON fields URL-encoded, `method` as text. */

@@ -2,69 +2,28 @@
  * Curation routes (docs/api.md, "Curation" and "Test reports"): drafts and change proposals,
  * review decisions, diffs, test reports, calibration and the outbox. One function per route.
  */
+import type { z } from 'zod'
+import type * as contract from '@contract/api'
 import { request, requestBlob } from './client'
 import type { CurveComparison } from '@catalog/calibration'
-import type { Curve, Entry, EntryStatus, EntrySummary, Material, MetricValue, ParamRanges, PersonRef, Revision } from './types'
+import type { EntrySummary, Material, MetricValue, ParamRanges } from './types'
 
 export type { CurveComparison }
 
-export type CommentKind = 'comment' | 'changes_requested' | 'rejected'
-
-export interface EntryComment {
-  id: number
-  kind: CommentKind
-  text: string
-  author: PersonRef | null
-  createdAt: string
-}
-
-export type ReportStatus = 'submitted' | 'accepted' | 'rejected'
-
-export interface ReportComparison extends CurveComparison {
-  revisionId: number
-  revisionNumber: number
-  predictedMaterial: { id: string | null; name: string; modulus: number }
-}
-
-export interface TestReport {
-  id: number
-  revisionId: number | null
-  status: ReportStatus
-  uploader: PersonRef | null
-  reviewer: PersonRef | null
-  originalName: string
-  hasPhoto: boolean
-  printer: string
-  material: string
-  lot: string
-  orientation: string
-  /** mm/min */
-  testSpeed: number | null
-  notes: string
-  reviewNote: string
-  reviewedAt: string | null
-  /** A preview of at most 400 points (peaks kept) for drawing; the whole curve: GET /api/reports/:id/curve. */
-  measuredCurve: { displacement: number[]; force: number[] }
-  /** Points in the whole measured curve. */
-  points: number
-  createdAt: string
-  comparison: ReportComparison | null
-  comparisonProblem: string | null
-}
-
-/** A report as the review queue and the report routes send it: with the entry it belongs to. */
-export interface TestReportWithEntry extends TestReport {
-  entry: { id: number; name: string; familyId: string }
-}
-
-/** GET /api/entries/:id as the curation server sends it. */
-export interface EntryDetail extends Omit<Entry, 'reports'> {
-  proposalForId: number | null
-  reports: TestReport[]
-  comments: EntryComment[]
-  proposalFor: { id: number; name: string; status: EntryStatus; currentRevisionId: number | null } | null
-  proposals: Array<EntrySummary & { proposalForId: number | null }>
-}
+// The answers' shapes come from the wire contract (contract/api.ts), type-only.
+export type CommentKind = z.infer<typeof contract.CommentKind>
+export type EntryComment = z.infer<typeof contract.EntryComment>
+export type ReportStatus = z.infer<typeof contract.ReportStatus>
+export type ReportComparison = z.infer<typeof contract.ReportComparison>
+export type TestReport = z.infer<typeof contract.TestReport>
+export type TestReportWithEntry = z.infer<typeof contract.TestReportWithEntry>
+export type EntryDetail = z.infer<typeof contract.EntryDetail>
+export type EntryDiff = z.infer<typeof contract.EntryDiff>
+export type RevisionComparison = z.infer<typeof contract.RevisionComparison>
+export type CalibrationGroup = z.infer<typeof contract.CalibrationGroup>
+export type EntryCalibration = z.infer<typeof contract.EntryCalibration>
+export type ReviewQueue = z.infer<typeof contract.ReviewQueue>
+export type OutboxMessage = z.infer<typeof contract.OutboxMessage>
 
 export type ProposalSummary = EntrySummary & { proposalForId?: number | null }
 
@@ -82,28 +41,6 @@ export interface MetricDiffRow extends DiffRow<MetricValue> {
   difference: number | null
 }
 
-export interface EntryDiff {
-  entryId: number
-  against: { id: number; number: number; entryId: number } | null
-  params: Array<DiffRow<number | string>>
-  ranges: Array<DiffRow<[number, number]>>
-  metrics: MetricDiffRow[]
-  fields: Array<{ field: 'name' | 'summary' | 'tags' | 'materials' | 'notes'; a: unknown; b: unknown; changed: boolean }>
-  curves: { a: Curve | null; b: Curve | null }
-  method: string | null
-  warnings: string[]
-  evaluationProblem: string | null
-}
-
-export interface RevisionComparison {
-  entryId: number
-  a: Revision
-  b: Revision
-  params: Array<DiffRow<number | string>>
-  ranges: Array<DiffRow<[number, number]>>
-  metrics: MetricDiffRow[]
-}
-
 /** The body of a draft or a change proposal (POST /api/entries, PATCH, proposals). */
 export interface DraftBody {
   name: string
@@ -113,43 +50,6 @@ export interface DraftBody {
   ranges: ParamRanges
   materials: string[]
   notes: string
-}
-
-export interface CalibrationGroup {
-  printer: string
-  material: string
-  count: number
-  moduli: Array<{ reportId: number; modulus: number }>
-  mean: number
-  standardDeviation: number | null
-  range: number
-  min: number
-  max: number
-}
-
-export interface EntryCalibration {
-  entryId: number
-  groups: CalibrationGroup[]
-  reports: Array<{ reportId: number; revisionId: number | null; printer: string; material: string; lot: string; modulus: number; predictedModulus: number; predictedMaterial: ReportComparison['predictedMaterial'] }>
-  unfitted: Array<{ reportId: number; reason: string }>
-}
-
-export interface ReviewQueue {
-  entries: Array<{ entry: EntryDetail; diff: EntryDiff }>
-  reports: TestReportWithEntry[]
-  /** The page shown (limit, offset) and how many wait in all. */
-  page: { limit: number; offset: number; totalEntries: number; totalReports: number }
-}
-
-export interface OutboxMessage {
-  id: number
-  to: string[]
-  subject: string
-  text: string
-  at: string
-  transport: string
-  status: 'sent' | 'failed' | string
-  error: string | null
 }
 
 /** The fields of an upload besides the files (multipart text fields, docs/api.md). */

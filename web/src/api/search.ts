@@ -1,15 +1,13 @@
 /** The search routes (docs/api.md, "Routes (search)"). */
 import type { SearchAnswer, SearchProgress, ShelfEntry } from '@catalog/search/types'
+import type { z } from 'zod'
+import type * as contract from '@contract/api'
 import { request } from './client'
 import { followEventStream } from './eventStream'
 
 export type { SearchAnswer, SearchProgress, SearchResult, Confirmation, ShelfEntry } from '@catalog/search/types'
 
-export interface SearchJobStart {
-  id: string
-  status: 'running' | 'done'
-  cached: boolean
-}
+export type SearchJobStart = z.infer<typeof contract.SearchJobStart>
 
 export type SearchJobEvent =
   | { event: 'progress'; data: SearchProgress }

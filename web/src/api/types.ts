@@ -1,9 +1,23 @@
 /** Shapes of the Flexshelf HTTP API (docs/api.md); catalog types are shared with the core. */
+import type { z } from 'zod'
+import type * as contract from '@contract/api'
 import type { AxisSpec, Curve, Evaluation, MethodInfo, MetricSpec, MetricValue, ModuleKind, ParamSpec } from '@catalog/schema/types'
 
 export type { AxisSpec, Curve, Evaluation, MethodInfo, MetricSpec, MetricValue, ModuleKind, ParamSpec }
 
-export type Role = 'engineer' | 'contributor' | 'librarian' | 'admin'
+// The API's answers, defined once in the wire contract (contract/api.ts); type-only, so the
+// bundle carries no schema.
+export type Role = z.infer<typeof contract.Role>
+export type Session = z.infer<typeof contract.Session>
+/** A family as the API sends it: the catalog definition without its functions. */
+export type Family = z.infer<typeof contract.Family>
+export type Material = z.infer<typeof contract.Material>
+/** A change proposal that is released becomes `merged` (it lives on as the entry's next revision). */
+export type EntryStatus = z.infer<typeof contract.EntryStatusSchema>
+export type PersonRef = z.infer<typeof contract.PersonRef>
+export type EntrySummary = z.infer<typeof contract.EntrySummary>
+export type Revision = z.infer<typeof contract.Revision>
+
 export type GrantableRole = Exclude<Role, 'admin'>
 
 export interface User {
@@ -25,78 +39,7 @@ export interface SigninOptions {
   signup: { open: boolean; domains: string[] }
   sso: { name: string } | null
 }
-
-export interface Session {
-  token: string
-  user: User
-}
-
-/** A family as the API sends it: the catalog definition without its functions. */
-export interface Family {
-  id: string
-  name: string
-  kind: ModuleKind
-  summary: string
-  params: ParamSpec[]
-  rules: Array<{ fields: string[] }>
-  methods: MethodInfo[]
-  defaultMethod: string
-  metrics: MetricSpec[]
-  axes: { displacement: AxisSpec; force: AxisSpec }
-  cautions: string[]
-  /** The two parameters the design map sweeps first (x across, y up), or null for the map's own choice. */
-  designMap: { sweep: readonly [string, string] } | null
-}
-
-export interface Material {
-  id: string
-  name: string
-  process: string
-  modulus: number
-  strainLimit: number
-  density: number
-  notes: string
-  source: string
-}
-
-/** A change proposal that is released becomes `merged` (it lives on as the entry's next revision). */
-export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired' | 'rejected' | 'merged'
-
-export interface PersonRef {
-  id: number
-  displayName: string
-}
-
-export interface EntrySummary {
-  id: number
-  familyId: string
-  /** The family's name, or its id when the family is no longer registered. */
-  familyName: string
-  /** null when the family is no longer registered. */
-  kind: ModuleKind | null
-  name: string
-  summary: string
-  tags: string[]
-  status: EntryStatus
-  owner: PersonRef
-  currentRevision: { id: number; number: number; metrics: Record<string, MetricValue> } | null
-  updatedAt: string
-}
-
 export type ParamRanges = Record<string, [number, number]>
-
-export interface Revision {
-  id: number
-  number: number
-  createdAt: string
-  createdBy: PersonRef
-  params: Record<string, number | string>
-  ranges: ParamRanges
-  method: string
-  curve: Curve
-  metrics: Record<string, MetricValue>
-  warnings: string[]
-}
 
 export interface Entry extends EntrySummary {
   defaultParams: Record<string, number | string>

@@ -35,8 +35,9 @@ export function defaultTolerance(): ToleranceForm {
   return { thickness: DEFAULT_TOLERANCE.thickness, modulusPercent: Number((DEFAULT_TOLERANCE.modulus * 100).toPrecision(6)) }
 }
 
-export function printerForm(printer: PrinterSetting | null | undefined): PrinterForm {
-  const p = printer ?? DEFAULT_PRINTER
+/** A saved printer may carry only the nozzle (the contract's SavedConfiguration.printer): the rest is the default's. */
+export function printerForm(printer: Partial<PrinterSetting> | null | undefined): PrinterForm {
+  const p = { ...DEFAULT_PRINTER, ...printer }
   return { profile: profileIdOf(p), nozzle: p.nozzle, layer: p.layer }
 }
 
