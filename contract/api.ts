@@ -336,6 +336,11 @@ export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum([
 
 // ── every route's answer ─────────────────────────────────────────────────────────────
 
+const readiness = z.object({
+  status: z.enum(['ready', 'not_ready']),
+  checks: z.record(z.string(), z.object({ status: z.enum(['ok', 'failed']), ms: z.number(), error: z.string().optional() })),
+})
+
 const entryBody = z.object({ entry: EntryDetail })
 const reportBody = z.object({ report: TestReportWithEntry })
 const configurationBody = z.object({ configuration: SavedConfiguration })
@@ -348,6 +353,13 @@ const datasheetBody = z.object({ datasheet: Datasheet })
  */
 export const responseContract = {
   'GET /api/health': z.object({ status: z.string(), version: z.string(), database: z.string() }),
+  'GET /api/ready': readiness,
+  'GET /api/auth/options': z.object({
+    passwordSignin: z.boolean(),
+    signup: z.object({ open: z.boolean(), domains: z.array(z.string()) }),
+    sso: z.object({ name: z.string() }).nullable(),
+  }),
+  'POST /api/auth/password-reset': z.object({ status: z.literal('accepted'), message: z.string() }),
   'POST /api/auth/signup': Session,
   'POST /api/auth/signin': Session,
   'GET /api/auth/me': z.object({ user: User }),
@@ -396,3 +408,8 @@ export const responseContract = {
 } as const satisfies Record<string, z.ZodType>
 
 export type ContractRoute = keyof typeof responseContract
+
+/** Routes whose failure is not ErrorBody: readiness answers 503 with the same body, naming the failed check. */
+export const failureContract: Readonly<Record<string, z.ZodType>> = {
+  'GET /api/ready': readiness,
+}

@@ -4,7 +4,7 @@
  * so a new route cannot skip the contract.
  */
 import type { z } from 'zod'
-import { ErrorBody, responseContract } from './api'
+import { ErrorBody, failureContract, responseContract } from './api'
 
 export class ContractViolation extends Error {
   constructor(readonly route: string, readonly status: number, readonly issues: string[]) {
@@ -18,7 +18,7 @@ function issuesOf(error: z.ZodError): string[] {
 }
 
 export function checkResponse(route: string, status: number, body: unknown): void {
-  const schema = status >= 400 ? ErrorBody : (responseContract as Record<string, z.ZodType | undefined>)[route]
+  const schema = status >= 400 ? failureContract[route] ?? ErrorBody : (responseContract as Record<string, z.ZodType | undefined>)[route]
   if (!schema) throw new ContractViolation(route, status, ['no schema for this route in contract/api.ts responseContract'])
   const parsed = schema.safeParse(body)
   if (!parsed.success) throw new ContractViolation(route, status, issuesOf(parsed.error))
