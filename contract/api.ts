@@ -390,6 +390,9 @@ export const responseContract = {
   'POST /api/entries/:id/reports': reportBody,
   'POST /api/reports/:id/accept': reportBody,
   'POST /api/reports/:id/reject': reportBody,
+  'GET /api/reports/:id/curve': z.object({
+    reportId: z.number().int(), points: z.number().int().nonnegative(), measuredCurve: z.object({ displacement: z.array(z.number()), force: z.array(z.number()) }),
+  }),
   'POST /api/reports/:id/adopt-modulus': z.object({ material: Material }),
   'GET /api/review-queue': ReviewQueue,
   'GET /api/outbox': z.object({ messages: z.array(OutboxMessage) }),
@@ -403,6 +406,8 @@ export const responseContract = {
   'GET /api/shared/:token': configurationBody,
   'GET /api/shared/:token/check': CheckResult,
   'GET /api/shared/:token/datasheet': datasheetBody,
+  // landed by another issue at the same time; only its envelope is held here so far
+  'GET /api/compare': z.object({ comparison: z.record(z.string(), z.unknown()) }),
   'POST /api/search': SearchAnswerSchema.extend({ cached: z.boolean().optional() }),
   'POST /api/searches': SearchJobStart,
 } as const satisfies Record<string, z.ZodType>

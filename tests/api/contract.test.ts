@@ -10,7 +10,7 @@ import { getFamily } from '../../catalog'
 import { startTestApp, type TestApp } from './helpers'
 
 /** Routes that answer a file (a model, a drawing, a CSV, a PDF, an upload), an event stream or an empty 204, never a JSON body. */
-const FILE_OR_STREAM = /\/(stl|3mf|dxf|svg|curve\.csv|datasheet\.pdf|file|photo|events)$/
+const FILE_OR_STREAM = /\/(stl|3mf|dxf|svg|csv|pdf|curve\.csv|datasheet\.pdf|file|photo|events)$/
 const EMPTY_ANSWER = new Set(['POST /api/auth/signout', 'POST /api/auth/password', 'POST /api/auth/password-reset/confirm', 'DELETE /api/searches/:id', 'DELETE /api/configurations/:id', 'DELETE /api/configurations/:id/share'])
 const withoutJsonBody = (route: string) => EMPTY_ANSWER.has(route) || (route.startsWith('GET ') && FILE_OR_STREAM.test(route))
 
