@@ -12,7 +12,7 @@ import { z } from 'zod'
 import type { CurveComparison } from '../catalog/calibration'
 import type { PrintabilityReport } from '../catalog/printability'
 import type { Curve, Evaluation, MetricSpec, ModuleKind, ParamSpec } from '../catalog/schema/types'
-import type { Confirmation, SearchAnswer, ShelfEntry } from '../catalog/search/types'
+import type { Confirmation, ShelfEntry } from '../catalog/search/types'
 import type { ForceWindow, Judgement } from '../catalog/window'
 
 /** A catalog type on the wire: an object carrying at least `keys`. */
@@ -331,7 +331,7 @@ const SearchResultSchema = z.object({
 })
 export const SearchAnswerSchema = z.object({
   results: z.array(SearchResultSchema), considered: z.number(), elapsedMs: z.number(), explanation: z.string(),
-}) satisfies z.ZodType<SearchAnswer>
+})
 export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum(['running', 'done']), cached: z.boolean() })
 
 // ── every route's answer ─────────────────────────────────────────────────────────────
