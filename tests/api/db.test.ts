@@ -28,7 +28,7 @@ const EXPECTED_TABLES: Record<string, string[]> = {
   Materials: ['id', 'name', 'process', 'modulus', 'strainLimit', 'density', 'notes', 'source', 'createdAt', 'updatedAt'],
   Entries: ['id', 'familyId', 'name', 'summary', 'tags', 'status', 'defaultParams', 'ranges', 'materials', 'notes', 'ownerId', 'currentRevisionId', 'proposalForId', 'createdAt', 'updatedAt'],
   EntryRevisions: ['id', 'entryId', 'number', 'params', 'ranges', 'method', 'curve', 'metrics', 'warnings', 'createdById', 'createdAt'],
-  TestReports: ['id', 'entryId', 'revisionId', 'uploaderId', 'reviewerId', 'filePath', 'originalName', 'photoPath', 'printer', 'material', 'lot', 'orientation', 'testSpeed', 'notes', 'reviewNote', 'reviewedAt', 'status', 'measuredCurve', 'createdAt', 'updatedAt'],
+  TestReports: ['id', 'entryId', 'revisionId', 'uploaderId', 'reviewerId', 'filePath', 'originalName', 'photoPath', 'printer', 'material', 'lot', 'orientation', 'testSpeed', 'notes', 'reviewNote', 'reviewedAt', 'status', 'measuredCurve', 'comparison', 'comparisonProblem', 'createdAt', 'updatedAt'],
   SavedConfigurations: ['id', 'ownerId', 'entryId', 'revisionId', 'name', 'params', 'window', 'method', 'tolerance', 'printer', 'shareToken', 'createdAt', 'updatedAt'],
   AuditEvents: ['id', 'actorId', 'action', 'subjectType', 'subjectId', 'details', 'at'],
   RevokedTokens: ['jti', 'expiresAt'],
@@ -49,7 +49,7 @@ describe('migrations', () => {
     afterAll(() => sequelize.close())
 
     it('applies every migration in order', () => {
-      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings', '0004-accounts'])
+      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings', '0004-accounts', '0005-report-comparison'])
     })
 
     it('produces exactly the expected tables and columns', async () => {
