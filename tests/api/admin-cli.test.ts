@@ -13,7 +13,7 @@ import { openDatabase } from '../../api/db'
 import { seedDemoData } from '../../api/db/seed'
 import { describeWeakSecret } from '../../api/secret-strength'
 import { generateSecret } from '../../api/services/admin-accounts'
-import { bearer, makeTempDir, testConfig } from './helpers'
+import { bearer, makeTempDir, onPostgres, testConfig } from './helpers'
 
 const root = join(import.meta.dirname, '..', '..')
 const tsx = join(root, 'node_modules', '.bin', 'tsx')
@@ -73,7 +73,10 @@ describe('npm run admin -- secret', () => {
   })
 })
 
-describe('a first start in production', () => {
+// The command line and the production server run as child processes over a data folder's
+// SQLite file; under test:pg the test's own database would be PostgreSQL, so these two run
+// on SQLite only (the command line shares its database code with the server either way).
+describe.skipIf(onPostgres)('a first start in production', () => {
   const dataDir = freshDir()
 
   it('adds the first admin with the password from standard input, and the server lets them in', async () => {
@@ -175,7 +178,7 @@ describe('a first start in production', () => {
   })
 })
 
-describe('a production server over a folder with demo accounts', () => {
+describe.skipIf(onPostgres)('a production server over a folder with demo accounts', () => {
   it('refuses to start, says how to remove them, and starts once they are removed', async () => {
     const dataDir = freshDir()
     const config = testConfig(dataDir)
