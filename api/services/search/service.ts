@@ -75,10 +75,14 @@ export class SearchService {
     return answer
   }
 
-  /** Searches of one user being computed now, over both routes. */
+  /**
+   * Searches of one user being computed now, over both routes. A job the user has cancelled
+   * no longer counts, though its thread may take a moment to stop: "cancel one" frees a
+   * place at once, as the 429's message promises.
+   */
   running(ownerId: number): number {
     let jobs = 0
-    for (const j of this.jobs.values()) if (j.ownerId === ownerId && j.status === 'running') jobs++
+    for (const j of this.jobs.values()) if (j.ownerId === ownerId && j.status === 'running' && !j.controller.signal.aborted) jobs++
     return jobs + (this.answering.get(ownerId) ?? 0)
   }
 
