@@ -15,10 +15,10 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { availableParallelism, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import autocannon, { type Options, type Result } from 'autocannon'
+import { freePort } from './support/free-port'
 
 const PASSWORD = 'flexshelf-demo'
 
@@ -27,17 +27,6 @@ interface Server {
   stop: () => Promise<void>
 }
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const address = srv.address()
-      const port = typeof address === 'object' && address ? address.port : 0
-      srv.close(() => resolve(port))
-    })
-  })
-}
 
 async function startServer(env: Record<string, string>): Promise<Server> {
   const dataDir = mkdtempSync(join(tmpdir(), 'flexshelf-bench-'))

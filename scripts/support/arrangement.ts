@@ -9,7 +9,8 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { startFakeS3, type FakeS3 } from './fake-s3'
-import { freePort, startPostgresCluster, type PostgresCluster } from './postgres-cluster'
+import { freePort } from './free-port'
+import { startPostgresCluster, type PostgresCluster } from './postgres-cluster'
 
 const ROOT = resolve(import.meta.dirname, '../..')
 

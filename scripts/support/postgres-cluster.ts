@@ -7,9 +7,9 @@
  */
 import { execFileSync } from 'node:child_process'
 import { chmodSync, chownSync, existsSync, mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { freePort } from './free-port'
 
 export const POSTGRES_BIN = process.env.FLEXSHELF_PG_BIN || '/usr/lib/postgresql/15/bin'
 
@@ -22,17 +22,6 @@ export interface PostgresCluster {
   stop(): void
 }
 
-export async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer()
-    server.once('error', reject)
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address()
-      const port = typeof address === 'object' && address ? address.port : 0
-      server.close(() => resolve(port))
-    })
-  })
-}
 
 function postgresIds(): { uid: number; gid: number } {
   const uid = Number(execFileSync('id', ['-u', 'postgres'], { encoding: 'utf8' }).trim())

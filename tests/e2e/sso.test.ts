@@ -5,22 +5,11 @@
  * maps to. Also the account screens around it, photographed.
  */
 import { spawn, type ChildProcess } from 'node:child_process'
-import { createServer } from 'node:net'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { openBrowser, screenshot, type Browser } from './support/browser'
 import { startServer, type RunningServer } from './support/server'
+import { freePort } from '../../scripts/support/free-port'
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const address = srv.address()
-      const port = typeof address === 'object' && address ? address.port : 0
-      srv.close(() => resolve(port))
-    })
-  })
-}
 
 function startIdp(port: number, redirectUri: string): Promise<{ child: ChildProcess; output: () => string }> {
   const child = spawn('npm', ['run', '--silent', 'dev:idp'], {

@@ -1,8 +1,8 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
+import { freePort } from '../../../scripts/support/free-port'
 
 export interface RunningServer {
   url: string
@@ -22,18 +22,6 @@ export interface StartOptions {
   keepData?: boolean
 }
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer()
-    srv.unref()
-    srv.on('error', reject)
-    srv.listen(0, '127.0.0.1', () => {
-      const address = srv.address()
-      const port = typeof address === 'object' && address ? address.port : 0
-      srv.close(() => resolve(port))
-    })
-  })
-}
 
 /** Starts the real server (built web app + API) on a free loopback port over a fresh data folder. */
 export async function startServer(env: Record<string, string> = {}, options: StartOptions = {}): Promise<RunningServer> {
