@@ -4,19 +4,8 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { unzipSync, strFromU8 } from 'fflate'
 import DxfParser from 'dxf-parser'
-import { main } from '../../../catalog/cli'
+import { runCli as run } from '../cli-runner'
 
-function sink() {
-  let text = ''
-  return { write: (s: string) => { text += s; return true }, get text() { return text } }
-}
-
-async function run(args: string[]) {
-  const out = sink()
-  const err = sink()
-  const code = await main(args, out as unknown as typeof process.stdout, err as unknown as typeof process.stderr)
-  return { code, out: out.text, err: err.text }
-}
 
 const dir = mkdtempSync(join(tmpdir(), 'flexshelf-files-'))
 

@@ -2,20 +2,9 @@ import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { main } from '../../../catalog/cli'
+import { runCli as run } from '../cli-runner'
 import { DEMO_SHELF } from '../../../catalog/search'
 
-function sink() {
-  let text = ''
-  return { write: (s: string) => { text += s; return true }, get text() { return text } }
-}
-
-async function run(args: string[]) {
-  const out = sink()
-  const err = sink()
-  const code = await main(args, out as unknown as typeof process.stdout, err as unknown as typeof process.stderr)
-  return { code, out: out.text, err: err.text }
-}
 
 describe('flexshelf search', () => {
   it('prints the answer as JSON over the built-in demo shelf', async () => {
