@@ -16,7 +16,7 @@ import { CandidateJudge, type CandidateContext, type CandidateScore } from './ca
 import { exactCheck, uncertaintyOf } from './exact-check'
 import { estimatorFor } from './estimators'
 import { explainEmpty, type Tally } from './explain'
-import { MARGIN_BUCKET, marginRank, rankKey, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
+import { compareRankKeys, MARGIN_BUCKET, marginRank, rankKey, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
 import { distinctAnswers } from './distinct'
 import { refine } from './refine'
 import { entryGrid, GridCursor, type Axis } from './sampling'
@@ -442,10 +442,7 @@ function droppedSentence(dropped: DroppedResult[]): string {
 
 function bestOf(list: Scored[], n: number): Scored[] {
   const keyed = list.map((s) => ({ s, key: rankKey(rankOf(s)) }))
-  keyed.sort((a, b) => {
-    for (let i = 0; i < 4; i++) if (a.key[i] !== b.key[i]) return a.key[i] - b.key[i]
-    return b.s.score.windowMargin - a.s.score.windowMargin
-  })
+  keyed.sort((a, b) => compareRankKeys(a.key, b.key, a.s.score.windowMargin, b.s.score.windowMargin))
   const seen = new Set<string>()
   const out: Scored[] = []
   for (const { s } of keyed) {

@@ -35,9 +35,12 @@ export function rankKey(r: Rankable): [number, number, number, number] {
   return [marginRank(r.windowMargin), safetyRank(r.safetyFactor), r.area, r.volume]
 }
 
-export function compareRank(a: Rankable, b: Rankable): number {
-  const ka = rankKey(a)
-  const kb = rankKey(b)
+/** The one ranking: keys in order, then the larger window margin first. */
+export function compareRankKeys(ka: readonly number[], kb: readonly number[], marginA: number, marginB: number): number {
   for (let i = 0; i < ka.length; i++) if (ka[i] !== kb[i]) return ka[i] - kb[i]
-  return b.windowMargin - a.windowMargin
+  return marginB - marginA
+}
+
+export function compareRank(a: Rankable, b: Rankable): number {
+  return compareRankKeys(rankKey(a), rankKey(b), a.windowMargin, b.windowMargin)
 }
