@@ -118,6 +118,14 @@ describe('spring search: the band and the ranking, recomputed here', () => {
     const steps = answer.results.map((r) => Math.floor(twoSidedMargin(band(r), stiffness) / 0.05))
     for (let i = 1; i < steps.length; i++) expect(steps[i], `result ${i + 1} after ${i}`).toBeLessThanOrEqual(steps[i - 1])
   })
+
+  it('the first result is as good as any of a longer list (an engine that keeps the worst fails here)', () => {
+    const longer = searchShelfSync({ kind: 'spring', stiffness, tolerance: tol, limit: 40 }, DEMO_SHELF, { confirm: 0, refine: false, budget: 800 })
+    const step = (r: (typeof answer.results)[number]) => Math.floor(twoSidedMargin(band(r), stiffness) / 0.05)
+    const best = Math.max(...longer.results.map(step))
+    expect(longer.results.length).toBeGreaterThan(answer.results.length)
+    expect(step(answer.results[0])).toBe(best)
+  })
 })
 
 /** Young's modulus of a built-in material, MPa (its data sheet value, catalog/materials/builtin.ts). */
