@@ -329,8 +329,25 @@ const SearchResultSchema = z.object({
   confirmed: catalogValue<Confirmation>('a confirmation', ['method', 'metrics', 'agreement']).nullable(),
   why: z.string(),
 })
+/** The scatter's points: every candidate the answer kept, capped (api/services/search/tradeoffs.ts). */
+export const SearchTradeoffs = z.object({
+  points: z.array(z.object({
+    entryId: z.union([z.number(), z.string()]),
+    entryName: z.string(),
+    family: z.string(),
+    params: paramValues,
+    margin: z.number(),
+    safetyFactor: z.number().nullable(),
+    footprint: z.number().nullable(),
+    position: z.number().int().positive().nullable(),
+    variantOf: z.number().int().positive().nullable(),
+  })),
+  total: z.number().int().nonnegative(),
+  capped: z.boolean(),
+})
 export const SearchAnswerSchema = z.object({
   results: z.array(SearchResultSchema), considered: z.number(), elapsedMs: z.number(), explanation: z.string(),
+  tradeoffs: SearchTradeoffs,
 })
 export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum(['running', 'done']), cached: z.boolean() })
 

@@ -7,7 +7,7 @@ import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { searchShelfSync, type SearchAnswer, type ShelfEntry } from '../../catalog'
 import { configureComputePool } from '../../api/services/compute-pool'
-import { searchService } from '../../api/services/search'
+import { MAX_TRADEOFF_POINTS, searchService, tradeoffsOf, type Tradeoffs } from '../../api/services/search'
 import { bearer, signInAs, startTestApp, type TestApp } from './helpers'
 import { readEvents } from './sse'
 
@@ -33,7 +33,8 @@ beforeAll(async () => {
 afterAll(() => t.close())
 
 const sameAnswer = (observed: SearchAnswer, expected: SearchAnswer) => {
-  const strip = (a: SearchAnswer) => ({ ...a, elapsedMs: 0 })
+  // the API adds the scatter's points (checked in their own test) to the engine's answer
+  const strip = (a: SearchAnswer) => ({ ...a, elapsedMs: 0, tradeoffs: undefined })
   expect(strip(observed)).toEqual(strip(expected))
 }
 
@@ -73,6 +74,42 @@ describe('POST /api/search', () => {
       const shelf = (await request(t.app).get('/api/shelf').set(bearer(engineer))).body.entries as ShelfEntry[]
       const materials = (await request(t.app).get('/api/materials').set(bearer(engineer))).body.materials
       sameAnswer(res.body, searchShelfSync(window, shelf, { materials }))
+    })
+  })
+
+  describe('the trade-off points beside the answer', () => {
+    it('hold every listed result and every close variant once, with its margin, strain safety and footprint', async () => {
+      const res = await request(t.app).post('/api/search').set(bearer(engineer)).send({ ...aroundSwitch, materials: ['petg', 'abs', 'pa12'] }).expect(200)
+      const answer = res.body as SearchAnswer & { tradeoffs: Tradeoffs }
+      const { points, total, capped } = answer.tradeoffs
+      const variants = answer.results.reduce((n, r) => n + (r.closeVariants?.length ?? 0), 0)
+      expect(variants).toBeGreaterThan(0)
+      expect(total).toBe(answer.results.length + variants)
+      expect(capped).toBe(total > MAX_TRADEOFF_POINTS)
+      answer.results.forEach((r, i) => {
+        const p = points.find((q) => q.position === i + 1)!
+        expect({ margin: p.margin, safetyFactor: p.safetyFactor, params: p.params, footprint: p.footprint }).toEqual({ margin: r.margin, safetyFactor: r.safetyFactor, params: r.params, footprint: r.rank!.footprint })
+      })
+      for (const p of points.filter((q) => q.position === null)) {
+        const lead = answer.results[p.variantOf! - 1]
+        expect(lead.closeVariants!.some((v) => v.margin === p.margin && JSON.stringify(v.params) === JSON.stringify(p.params))).toBe(true)
+        // a bistable beam's plan envelope: the span (plus its side posts) by the frame; at least span × apex height
+        const span = p.params.span as number
+        expect(p.footprint!).toBeGreaterThan(span * (p.params.apexHeight as number))
+      }
+    })
+
+    it('cap the points, keeping every listed result first, and say so', () => {
+      const result = (margin: number, variants: number[]) => ({
+        entryId: 1, entryName: 'x', family: 'bistable-beam', params: { span: 60, apexHeight: 2, thickness: 0.7, depth: 6, postLength: 0, material: 'petg' },
+        margin, safetyFactor: 2, closeVariants: variants.map((m) => ({ params: { span: 60.5, apexHeight: 2, thickness: 0.7, depth: 6, postLength: 0, material: 'petg' }, margin: m, safetyFactor: 2 })),
+      })
+      const answer = { results: [result(0.3, [0.1, 0.25]), result(0.2, [0.05, 0.28])] } as unknown as SearchAnswer
+      const out = tradeoffsOf(answer, 4)
+      expect(out).toMatchObject({ total: 6, capped: true })
+      expect(out.points.map((p) => [p.position, p.margin])).toEqual([[1, 0.3], [2, 0.2], [null, 0.28], [null, 0.25]])
+      expect(out.points[2].variantOf).toBe(2)
+      expect(tradeoffsOf(answer).capped).toBe(false)
     })
   })
 

@@ -13,6 +13,7 @@ import { toHttpError } from '../../middleware/error-handler'
 import { jobQueueActive, queuedSearchPool } from '../job-queue'
 import { sharedSearchPool, type SearchPool } from './pool'
 import { loadShelf, type ShelfSnapshot } from './shelf'
+import { tradeoffsOf, type Tradeoffs } from './tradeoffs'
 
 /** Answers kept; a window's answer is a few kilobytes. */
 export const CACHE_CAPACITY = 200
@@ -21,11 +22,14 @@ export const MAX_RUNNING_PER_USER = 3
 /** A finished job is kept this long for a late or repeated events request, ms. */
 export const FINISHED_JOB_TTL_MS = 10 * 60_000
 
+/** What the API answers for a search: the catalog's answer and its trade-off points (tradeoffs.ts). */
+export type ApiSearchAnswer = SearchAnswer & { tradeoffs: Tradeoffs }
+
 export type JobStatus = 'running' | 'done' | 'failed' | 'cancelled'
 
 export type JobEvent =
   | { event: 'progress'; data: SearchProgress }
-  | { event: 'result'; data: SearchAnswer & { cached: boolean } }
+  | { event: 'result'; data: ApiSearchAnswer & { cached: boolean } }
   | { event: 'error'; data: { error: { code: string; message: string; details: Record<string, unknown> | null } } }
   | { event: 'cancelled'; data: { id: string } }
 
@@ -42,12 +46,12 @@ export interface SearchJob {
 }
 
 export interface SearchOutcome {
-  answer: SearchAnswer
+  answer: ApiSearchAnswer
   cached: boolean
 }
 
 export class SearchService {
-  private readonly cache = new LRUCache<string, SearchAnswer>({ max: CACHE_CAPACITY })
+  private readonly cache = new LRUCache<string, ApiSearchAnswer>({ max: CACHE_CAPACITY })
   private cacheVersion = ''
   private readonly jobs = new Map<string, SearchJob>()
   /** POST /api/search answers being computed, per user (jobs are counted from `jobs`). */
@@ -69,8 +73,9 @@ export class SearchService {
     return { window, shelf, key: windowCacheKey(window) }
   }
 
-  private async compute(window: ForceWindow, shelf: ShelfSnapshot, key: string, onProgress?: (p: SearchProgress) => void, signal?: AbortSignal): Promise<SearchAnswer> {
-    const answer = await this.pool.run({ window, shelf: shelf.entries, materials: shelf.materials, shelfVersion: shelf.version }, { onProgress, signal })
+  private async compute(window: ForceWindow, shelf: ShelfSnapshot, key: string, onProgress?: (p: SearchProgress) => void, signal?: AbortSignal): Promise<ApiSearchAnswer> {
+    const found = await this.pool.run({ window, shelf: shelf.entries, materials: shelf.materials, shelfVersion: shelf.version }, { onProgress, signal })
+    const answer = { ...found, tradeoffs: tradeoffsOf(found) }
     if (this.cacheVersion === shelf.version) this.cache.set(key, answer)
     return answer
   }

@@ -1,11 +1,17 @@
 /** The search routes (docs/api.md, "Routes (search)"). */
-import type { SearchAnswer, SearchProgress, ShelfEntry } from '@catalog/search/types'
+import type { SearchAnswer as CatalogSearchAnswer, SearchProgress, ShelfEntry } from '@catalog/search/types'
 import type { z } from 'zod'
 import type * as contract from '@contract/api'
 import { request } from './client'
 import { followEventStream } from './eventStream'
 
-export type { SearchAnswer, SearchProgress, SearchResult, Confirmation, ShelfEntry } from '@catalog/search/types'
+export type { SearchProgress, SearchResult, Confirmation, ShelfEntry } from '@catalog/search/types'
+
+/** The scatter's points of an answer (every kept candidate, capped). */
+export type SearchTradeoffs = z.infer<typeof contract.SearchTradeoffs>
+export type TradeoffPoint = SearchTradeoffs['points'][number]
+/** The catalog's answer as the API sends it, with its trade-off points. */
+export type SearchAnswer = CatalogSearchAnswer & { tradeoffs: SearchTradeoffs }
 
 export type SearchJobStart = z.infer<typeof contract.SearchJobStart>
 
