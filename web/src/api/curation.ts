@@ -85,7 +85,13 @@ export const curationApi = {
     request<{ diff: EntryDiff }>('GET', `/api/entries/${id(entryId)}/diff${against ? `?against=${against}` : ''}`).then((r) => r.diff),
   compareRevisions: (entryId: number, a: number, b: number) =>
     request<{ comparison: RevisionComparison }>('GET', `/api/entries/${id(entryId)}/revisions/compare?a=${a}&b=${b}`).then((r) => r.comparison),
-  reviewQueue: () => request<ReviewQueue>('GET', '/api/review-queue'),
+  reviewQueue: (page: { limit?: number; offset?: number } = {}) => {
+    const query = new URLSearchParams()
+    if (page.limit) query.set('limit', String(page.limit))
+    if (page.offset) query.set('offset', String(page.offset))
+    const q = query.toString()
+    return request<ReviewQueue>('GET', `/api/review-queue${q ? `?${q}` : ''}`)
+  },
   outbox: () => request<{ messages: OutboxMessage[] }>('GET', '/api/outbox').then((r) => r.messages),
 }
 

@@ -17,19 +17,32 @@ export function reviewCurves(diff: Pick<EntryDiff, 'curves' | 'against'> | null)
   return out
 }
 
-/** What waits for a librarian: proposals in review and submitted test reports. */
-export function useReviewQueue() {
+/** How many proposals and reports one page of the review queue holds (the API allows up to 100). */
+export const REVIEW_PAGE_SIZE = 50
+
+/** Which rows of a paged list a page shows, and whether there is anything before or after it. */
+export function queuePageSpan(offset: number, limit: number, total: number) {
+  // first is 0 when the page holds none of the list (empty, or every row is on an earlier page)
+  const first = offset < total ? offset + 1 : 0
+  const last = first ? Math.min(offset + limit, total) : 0
+  return { first, last, total, hasPrevious: offset > 0, hasNext: offset + limit < total }
+}
+
+/** What waits for a librarian: proposals in review and submitted test reports, a page at a time. */
+export function useReviewQueue(pageSize = REVIEW_PAGE_SIZE) {
   const reviewStore = useReviewStore()
   const reference = useReferenceStore()
   const queue = shallowRef<ReviewQueue>({ entries: [], reports: [], page: { limit: 0, offset: 0, totalEntries: 0, totalReports: 0 } })
   const loading = ref(true)
   const error = shallowRef<ApiError | null>(null)
 
+  const offset = ref(0)
+
   async function load() {
     loading.value = true
     error.value = null
     try {
-      const [q] = await Promise.all([curationApi.reviewQueue(), reference.load()])
+      const [q] = await Promise.all([curationApi.reviewQueue({ limit: pageSize, offset: offset.value }), reference.load()])
       queue.value = q
       reviewStore.set(q.page ? q.page.totalEntries + q.page.totalReports : q.entries.length + q.reports.length)
     } catch (e) {
@@ -46,8 +59,21 @@ export function useReviewQueue() {
     evaluationProblem: diff.evaluationProblem,
   })))
 
+  // The API pages proposals and reports with one offset, so the pager moves both lists together
+  // and stays while either list has more rows.
+  const total = computed(() => Math.max(queue.value.page?.totalEntries ?? 0, queue.value.page?.totalReports ?? 0))
+  const span = computed(() => queuePageSpan(offset.value, pageSize, total.value))
+  const proposalSpan = computed(() => queuePageSpan(offset.value, pageSize, queue.value.page?.totalEntries ?? queue.value.entries.length))
+  const reportSpan = computed(() => queuePageSpan(offset.value, pageSize, queue.value.page?.totalReports ?? queue.value.reports.length))
+  function goTo(direction: 1 | -1) {
+    const next = offset.value + direction * pageSize
+    if (next < 0 || (direction > 0 && !span.value.hasNext)) return
+    offset.value = next
+    void load()
+  }
+
   onMounted(load)
-  return { queue, proposals, reports: computed(() => queue.value.reports), loading, error, load }
+  return { queue, proposals, reports: computed(() => queue.value.reports), loading, error, load, span, proposalSpan, reportSpan, next: () => goTo(1), previous: () => goTo(-1) }
 }
 
 /** One proposal under review: the entry, its diff against the current revision, comments and decisions. */
