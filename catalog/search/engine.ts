@@ -16,12 +16,13 @@ import { CandidateJudge, type CandidateContext, type CandidateScore } from './ca
 import { exactCheck, uncertaintyOf } from './exact-check'
 import { estimatorFor } from './estimators'
 import { explainEmpty, type Tally } from './explain'
-import { compareRankKeys, MARGIN_BUCKET, marginRank, rankKey, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
-import { distinctAnswers } from './distinct'
+import { MARGIN_BUCKET, marginRank, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from './rank'
+import { BestList, bestOf, rankOf, UnitKeeper, type Scored, type Unit } from './best-list'
+import { distinctAnswers, type DistinctGroup } from './distinct'
 import { refine } from './refine'
 import { entryGrid, GridCursor, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
-import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf, ShelfEntry } from './types'
+import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf } from './types'
 import { describeResult } from './why'
 
 /** Candidates sampled per entry and material when the options give no budget. */
@@ -42,21 +43,52 @@ export class SearchCancelledError extends Error {
   }
 }
 
-export interface Unit {
-  entry: ShelfEntry
-  family: FamilyDefinition
-  material: SearchMaterial
-}
-
-export interface Scored {
-  unit: Unit
-  params: Record<string, number>
-  score: CandidateScore
-  area: number
-  volume: number
-}
-
 const now = () => (globalThis.performance?.now ? globalThis.performance.now() : Date.now())
+
+type Phase = 'sampling' | 'refining' | 'confirming' | 'done'
+
+/** What every step of one search reads and adds to: the window, its limits, the units, the tally and the kept candidates. */
+interface SearchRun {
+  readonly started: number
+  readonly window: ForceWindow
+  readonly compiled: CompiledWindow
+  /** The metric keys judged: the window's, and whether the part is bistable. */
+  readonly keys: string[]
+  readonly limit: number
+  readonly budget: number
+  readonly rules: PrinterRules
+  readonly materials: readonly SearchMaterial[]
+  readonly distinct: boolean
+  readonly options: SearchOptions
+  readonly tally: Tally
+  readonly units: Unit[]
+  /** Every unit's best (its BestList's items), in unit order. */
+  readonly accepted: Scored[]
+  /**
+   * The best `limit` accepted so far over the units done (what bestOf(accepted) would keep);
+   * with distinct answers every unit's best is listed whatever the others found, so a unit's
+   * candidates are screened against its own list only.
+   */
+  readonly best: BestList
+  progress(done: number, phase: Phase): void
+}
+
+/** Step 1: the window compiled, the units to search, and an empty tally. */
+function startRun(window: ForceWindow, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex }): SearchRun {
+  const started = now()
+  const families = options.families ?? registry
+  const materials = options.materials ?? builtinMaterials
+  const compiled = compileWindow(window)
+  const limit = window.limit ?? DEFAULT_LIMIT
+  const tally: Tally = { entries: { released: 0, ofKind: 0, matchingText: null, withMaterial: 0 }, reasons: {}, unprintable: [], notes: [], nearest: null, considered: 0 }
+  const units = unitsOf(window, shelf, families, materials, options.index, tally)
+  return {
+    started, window, compiled, keys: [...compiled.metrics, 'bistable'], limit, budget: options.budget ?? DEFAULT_BUDGET,
+    rules: printerRules(window.printer), materials, distinct: options.distinct !== false, options, tally, units,
+    accepted: [], best: new BestList(limit),
+    progress: (done, phase) => options.onProgress?.({ done, total: units.length, considered: tally.considered, phase }),
+  }
+}
 
 function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): CandidateContext {
   const { family, material } = unit
@@ -71,13 +103,6 @@ function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): C
     walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
   }
 }
-
-function scored(unit: Unit, params: Record<string, number>, score: CandidateScore): Scored {
-  const env = unit.family.envelope(params)
-  return { unit, params: { ...params }, score, area: env.x * env.y, volume: env.x * env.y * env.z }
-}
-
-const rankOf = (s: Scored) => ({ windowMargin: s.score.windowMargin, safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1, area: s.area, volume: s.volume })
 
 /** Units to search and why the others were left out. */
 function unitsOf(window: ForceWindow, shelf: Shelf, families: readonly FamilyDefinition[], materials: readonly SearchMaterial[], index: ShelfTextIndex | undefined, tally: Tally): Unit[] {
@@ -110,104 +135,60 @@ function unitsOf(window: ForceWindow, shelf: Shelf, families: readonly FamilyDef
   return units
 }
 
-function bandOf(compiled: CompiledWindow, score: CandidateScore): MetricBand {
-  const band: MetricBand = {}
-  for (const key of compiled.metrics) {
-    const lo = score.low?.[key]
-    const hi = score.high?.[key]
-    band[key] = typeof lo === 'number' && typeof hi === 'number' ? [lo, hi] : null
-  }
-  return band
-}
-
-function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex }): Generator<void, SearchAnswer> {
-  const started = now()
-  const families = options.families ?? registry
-  const materials = options.materials ?? builtinMaterials
-  const rules: PrinterRules = printerRules(window.printer)
-  const compiled = compileWindow(window)
-  const keys = [...compiled.metrics, 'bistable']
-  const limit = window.limit ?? DEFAULT_LIMIT
-  const budget = options.budget ?? DEFAULT_BUDGET
-  const tally: Tally = { entries: { released: 0, ofKind: 0, matchingText: null, withMaterial: 0 }, reasons: {}, unprintable: [], notes: [], nearest: null, considered: 0 }
-  const units = unitsOf(window, shelf, families, materials, options.index, tally)
-  const progress = (done: number, phase: 'sampling' | 'refining' | 'confirming' | 'done') =>
-    options.onProgress?.({ done, total: units.length, considered: tally.considered, phase })
-
-  const accepted: Scored[] = []
-  // the best `limit` accepted so far over the units done (what bestOf(accepted) would keep);
-  // with distinct answers every unit's best is listed whatever the others found, so a unit's
-  // candidates are screened against its own list only
-  const distinct = options.distinct !== false
-  const best = new BestList(limit)
-  for (let u = 0; u < units.length; u++) {
-    const unit = units[u]
-    const grid = entryGrid(unit.family, unit.entry, rules, budget)
+/** Step 2: every unit sampled, refined and its best kept (run.accepted, run.best). */
+function* searchUnits(run: SearchRun): Generator<void> {
+  for (let u = 0; u < run.units.length; u++) {
+    const unit = run.units[u]
+    const grid = entryGrid(unit.family, unit.entry, run.rules, run.budget)
     if (grid.problem) {
       // the same entry in another material is unprintable for the same reason: say it once
       const line = `${unit.entry.name}: ${grid.problem}`
-      if (!tally.unprintable.includes(line)) tally.unprintable.push(line)
+      if (!run.tally.unprintable.includes(line)) run.tally.unprintable.push(line)
       continue
     }
-    const ctx = contextOf(unit, window, compiled)
-    const judge = new CandidateJudge(ctx, keys)
-    const mine = new BestList(limit)
-    const keep = new UnitKeeper(unit, judge)
-    // rank key of the candidate the judge holds: the bands, then the envelope when needed
-    let m = 0
-    let sr = 0
-    let area = 0
-    let volume = 0
-    const bands = () => {
-      m = marginRank(judge.windowMargin)
-      sr = safetyRank(judge.strainMargin === null ? null : judge.strainMargin + 1)
-    }
-    const envelope = (params: Record<string, number>) => {
-      if (ctx.footprint) {
-        area = judge.envelopeX * judge.envelopeY
-        volume = area * judge.envelopeZ
-      } else {
-        const env = unit.family.envelope(params)
-        area = env.x * env.y
-        volume = env.x * env.y * env.z
-      }
-    }
-    const offer = (params: Record<string, number>) => {
-      bands()
-      if (mine.outOnBands(m, sr)) return
-      envelope(params)
-      const at = mine.place(m, sr, area, volume, judge.windowMargin)
-      if (at >= limit || mine.holds(at, params, m, sr, area, volume, judge.windowMargin)) return
-      mine.insert(at, keep.scored(params), m, sr, area, volume)
-    }
-    /** Whether the candidate (bounded by the judge) could still enter this unit's list and the answer so far. */
-    const couldRank = (params: Record<string, number>) => {
-      bands()
-      if (mine.outOnBands(m, sr) || (!distinct && best.outOnBands(m, sr))) return false
-      envelope(params)
-      return !(mine.full && mine.place(m, sr, area, volume, judge.windowMargin) >= limit) && !(!distinct && best.full && best.place(m, sr, area, volume, judge.windowMargin) >= limit)
-    }
-    const seeds: Scored[] = []
-    // The judge holds the verdict of `params`; a Scored (records, envelope) is built only for
-    // the few candidates kept: a seed, the nearest miss, or one of the unit's best.
-    const consider = (params: Record<string, number>) => {
-      tally.considered++
-      keep.reset()
-      if (judge.ok) offer(params)
-      else {
-        tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
-        if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)
-      }
-      if (seeds.length < REFINE_SEEDS || judge.objective > seeds[seeds.length - 1].score.objective) {
-        const s = keep.scored(params)
-        let at = seeds.length
-        while (at > 0 && seeds[at - 1].score.objective < s.score.objective) at--
-        seeds.splice(at, 0, s)
-        if (seeds.length > REFINE_SEEDS) seeds.pop()
-      }
-    }
+    const search = new UnitSearch(run, unit, grid.axes)
+    yield* search.sample()
+    run.progress(u + 0.5, 'refining')
+    search.refineSeeds()
+    run.accepted.push(...search.mine.items)
+    run.best.merge(search.mine)
+    run.progress(u + 1, 'sampling')
+    yield
+  }
+}
+
+/**
+ * One unit's search: the grid walk, each candidate considered (its verdict tallied, kept as a
+ * seed, the nearest miss or one of the unit's best), and the refinement of the seeds. The
+ * judge holds the verdict of the candidate being considered; a Scored (records, envelope) is
+ * built only for the few candidates kept.
+ */
+class UnitSearch {
+  private readonly ctx: CandidateContext
+  private readonly judge: CandidateJudge
+  /** This unit's best, in rank order. */
+  readonly mine: BestList
+  private readonly keep: UnitKeeper
+  /** The candidates with the best objectives, best first: where refinement starts. */
+  private readonly seeds: Scored[] = []
+  // rank key of the candidate the judge holds: the bands, then the envelope when needed
+  private m = 0
+  private sr = 0
+  private area = 0
+  private volume = 0
+
+  constructor(private readonly run: SearchRun, private readonly unit: Unit, private readonly axes: Axis[]) {
+    this.ctx = contextOf(unit, run.window, run.compiled)
+    this.judge = new CandidateJudge(this.ctx, run.keys)
+    this.mine = new BestList(run.limit)
+    this.keep = new UnitKeeper(unit, this.judge)
+  }
+
+  /** The grid walk, yielding every YIELD_EVERY candidates. */
+  *sample(): Generator<void> {
+    const { judge, seeds, mine, run } = this
     let sinceYield = 0
-    const cursor = new GridCursor(grid.axes)
+    const cursor = new GridCursor(this.axes)
     const params = cursor.params
     while (cursor.next()) {
       if (++sinceYield % YIELD_EVERY === 0) yield
@@ -215,38 +196,107 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
       // answer (its band only ranks it lower; the reasons and nearest miss only explain an
       // empty answer): it is counted, not banded.
-      if (seeds.length >= REFINE_SEEDS && (mine.full || (!distinct && best.full))) {
+      if (seeds.length >= REFINE_SEEDS && (mine.full || (!run.distinct && run.best.full))) {
         const couldBeOk = judge.bound(params)
-        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !couldRank(params))) {
-          tally.considered++
+        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !this.couldRank(params))) {
+          run.tally.considered++
           continue
         }
         judge.judgeBounded(params)
       } else judge.judge(params)
-      consider(params)
+      this.consider(params)
     }
-    progress(u + 0.5, 'refining')
-    const continuous: Axis[] = grid.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
-    for (const seed of seeds) {
-      if (options.refine === false || seed.score.objective === -Infinity || !continuous.length) continue
-      const found = refine(judge, continuous, seed.params, seed.score, consider)
-      if (found.ok) {
-        judge.judge(found.params)
-        keep.reset()
-        offer(found.params)
-      }
-    }
-    accepted.push(...mine.items)
-    best.merge(mine)
-    progress(u + 1, 'sampling')
-    yield
   }
 
-  // spares beyond the limit stand in for results the exact check drops
-  const groups = distinct
+  /** Refines around each seed and offers what each refinement ends on. */
+  refineSeeds(): void {
+    if (this.run.options.refine === false) return
+    const continuous = this.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
+    if (!continuous.length) return
+    for (const seed of this.seeds) {
+      if (seed.score.objective === -Infinity) continue
+      const found = refine(this.judge, continuous, seed.params, seed.score, this.consider)
+      if (found.ok) {
+        this.judge.judge(found.params)
+        this.keep.reset()
+        this.offer(found.params)
+      }
+    }
+  }
+
+  /** Tallies the candidate the judge has just judged, and keeps it where it counts (refine calls it too). */
+  readonly consider = (params: Record<string, number>): void => {
+    const { judge, keep, seeds, run } = this
+    const tally = run.tally
+    tally.considered++
+    keep.reset()
+    if (judge.ok) this.offer(params)
+    else {
+      tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
+      if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)
+    }
+    if (seeds.length < REFINE_SEEDS || judge.objective > seeds[seeds.length - 1].score.objective) {
+      const s = keep.scored(params)
+      let at = seeds.length
+      while (at > 0 && seeds[at - 1].score.objective < s.score.objective) at--
+      seeds.splice(at, 0, s)
+      if (seeds.length > REFINE_SEEDS) seeds.pop()
+    }
+  }
+
+  /** Enters an accepted candidate into this unit's list where it ranks. */
+  private offer(params: Record<string, number>): void {
+    const { mine, judge } = this
+    this.bands()
+    if (mine.outOnBands(this.m, this.sr)) return
+    this.envelope(params)
+    const at = mine.place(this.m, this.sr, this.area, this.volume, judge.windowMargin)
+    if (at >= mine.n || mine.holds(at, params, this.m, this.sr, this.area, this.volume, judge.windowMargin)) return
+    mine.insert(at, this.keep.scored(params), this.m, this.sr, this.area, this.volume)
+  }
+
+  /** Whether the candidate (bounded by the judge) could still enter this unit's list and the answer so far. */
+  private couldRank(params: Record<string, number>): boolean {
+    const { mine, judge, run } = this
+    const best = run.best
+    this.bands()
+    if (mine.outOnBands(this.m, this.sr) || (!run.distinct && best.outOnBands(this.m, this.sr))) return false
+    this.envelope(params)
+    return !(mine.full && mine.place(this.m, this.sr, this.area, this.volume, judge.windowMargin) >= mine.n) &&
+      !(!run.distinct && best.full && best.place(this.m, this.sr, this.area, this.volume, judge.windowMargin) >= best.n)
+  }
+
+  private bands(): void {
+    this.m = marginRank(this.judge.windowMargin)
+    this.sr = safetyRank(this.judge.strainMargin === null ? null : this.judge.strainMargin + 1)
+  }
+
+  private envelope(params: Record<string, number>): void {
+    if (this.ctx.footprint) {
+      this.area = this.judge.envelopeX * this.judge.envelopeY
+      this.volume = this.area * this.judge.envelopeZ
+    } else {
+      const env = this.unit.family.envelope(params)
+      this.area = env.x * env.y
+      this.volume = env.x * env.y * env.z
+    }
+  }
+}
+
+type Group = DistinctGroup<Scored>
+
+/** Step 3: the one ranking of every unit's best, folded into distinct answers (spares beyond the limit stand in for results the exact check drops). */
+function rankAnswers(run: SearchRun): Group[] {
+  const { accepted, limit } = run
+  return run.distinct
     ? distinctAnswers(bestOf(accepted, accepted.length), 2 * limit, (s) => ({ group: `${s.unit.entry.id}|${s.unit.material.id}`, family: s.unit.family, params: s.params }))
     : bestOf(accepted, 2 * limit).map((lead) => ({ lead, tier: 1 as const, variants: [] as Scored[] }))
-  const confirmCount = options.confirm ?? DEFAULT_CONFIRM
+}
+
+/** Step 4: the leading answers confirmed with the exact method (and uncertain estimates judged exactly), in rank order. */
+function* confirmAnswers(run: SearchRun, groups: Group[]): Generator<void, { results: SearchResult[]; dropped: DroppedResult[] }> {
+  const { window, compiled, limit, materials, distinct } = run
+  const confirmCount = run.options.confirm ?? DEFAULT_CONFIRM
   const tolerance = resolveTolerance(window.tolerance)
   const results: SearchResult[] = []
   const dropped: DroppedResult[] = []
@@ -266,7 +316,7 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
     // the verdict is judged exactly wherever it ranks
     if (confirming || decisive) {
       if (!confirming) uncertainChecks++
-      progress(units.length, 'confirming')
+      run.progress(run.units.length, 'confirming')
       const check = exactCheck(window, compiled, s.unit.family, s.unit.material, s.params, s.score.nominal ?? {}, tolerance, materials, uncertain,
         decisive || !s.score.low || !s.score.high ? null : { low: s.score.low, high: s.score.high })
       yield
@@ -276,31 +326,61 @@ function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions &
       }
       confirmed = check.confirmation
     }
-    const band = bandOf(compiled, s.score)
-    const env = s.unit.family.envelope(s.params)
-    results.push({
-      entryId: s.unit.entry.id,
-      entryName: s.unit.entry.name,
-      family: s.unit.family.id,
-      params: { ...s.params, material: s.unit.material.id },
-      metrics: s.score.nominal ?? {},
-      band,
-      margin: s.score.windowMargin,
-      safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1,
-      method: estimatorFor(s.unit.family).method,
-      uncertain,
-      confirmed,
-      why: describeResult(results.length + 1, window, band, s.score, env, s.unit.material, confirmed),
-      ...(distinct ? { rank: rankKeyOf(s, group.tier), closeVariants: group.variants.map(variantOf) } : {}),
-    })
+    results.push(resultOf(run, s, group, results.length + 1, uncertain, confirmed, distinct))
   }
-  progress(units.length, 'done')
-  const elapsedMs = now() - started
+  return { results, dropped }
+}
+
+function resultOf(run: SearchRun, s: Scored, group: Group, position: number, uncertain: string[], confirmed: Confirmation | null, distinct: boolean): SearchResult {
+  const band = bandOf(run.compiled, s.score)
+  const env = s.unit.family.envelope(s.params)
+  return {
+    entryId: s.unit.entry.id,
+    entryName: s.unit.entry.name,
+    family: s.unit.family.id,
+    params: { ...s.params, material: s.unit.material.id },
+    metrics: s.score.nominal ?? {},
+    band,
+    margin: s.score.windowMargin,
+    safetyFactor: s.score.strainMargin === null ? null : s.score.strainMargin + 1,
+    method: estimatorFor(s.unit.family).method,
+    uncertain,
+    confirmed,
+    why: describeResult(position, run.window, band, s.score, env, s.unit.material, confirmed),
+    ...(distinct ? { rank: rankKeyOf(s, group.tier), closeVariants: group.variants.map(variantOf) } : {}),
+  }
+}
+
+function bandOf(compiled: CompiledWindow, score: CandidateScore): MetricBand {
+  const band: MetricBand = {}
+  for (const key of compiled.metrics) {
+    const lo = score.low?.[key]
+    const hi = score.high?.[key]
+    band[key] = typeof lo === 'number' && typeof hi === 'number' ? [lo, hi] : null
+  }
+  return band
+}
+
+/** Step 5: the answer and its explanation. */
+function answerOf(run: SearchRun, groups: Group[], results: SearchResult[], dropped: DroppedResult[]): SearchAnswer {
+  const { window, compiled, tally, distinct } = run
+  run.progress(run.units.length, 'done')
+  const elapsedMs = now() - run.started
   const tol = resolveTolerance(window.tolerance)
+  const entries = new Set(results.map((r) => r.entryId)).size
   const explanation = results.length
-    ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${new Set(results.map((r) => r.entryId)).size} entr${new Set(results.map((r) => r.entryId)).size === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${distinct ? ` The best design of each entry and material is listed first, then further designs that differ by more than a step and 3 % in some parameter; ${foldedText(groups)}` : ''}${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
-    : explainEmpty(window, compiled, tally, rules)
+    ? `${results.length} configuration${results.length === 1 ? '' : 's'} from ${entries} entr${entries === 1 ? 'y' : 'ies'} keep the whole tolerance band (walls ±${tol.thickness} mm, modulus ±${Math.round(tol.modulus * 100)} %) inside the window and the strain under the material's limit; ${tally.considered} candidates estimated. Ranked by margin to the window's edges over the band, then strain safety, footprint and envelope volume (a print-time proxy).${distinct ? ` The best design of each entry and material is listed first, then further designs that differ by more than a step and 3 % in some parameter; ${foldedText(groups)}` : ''}${tally.unprintable.length ? ` Not printable on this printer: ${tally.unprintable.join('; ')}.` : ''} Predicted forces are estimates to be confirmed on printed parts.`
+    : explainEmpty(window, compiled, tally, run.rules)
   return { results, considered: tally.considered, elapsedMs, explanation: explanation + droppedSentence(dropped), dropped }
+}
+
+/** The search, step by step; a generator so one body serves the synchronous and the time-sliced run. */
+function* searchBody(window: ForceWindow, shelf: Shelf, options: SearchOptions & { index?: ShelfTextIndex }): Generator<void, SearchAnswer> {
+  const run = startRun(window, shelf, options)
+  yield* searchUnits(run)
+  const groups = rankAnswers(run)
+  const { results, dropped } = yield* confirmAnswers(run, groups)
+  return answerOf(run, groups, results, dropped)
 }
 
 /** The sort key as applied, in readable numbers (rank.ts's bands). */
@@ -327,132 +407,11 @@ function foldedText(groups: { variants: Scored[] }[]): string {
   return folded ? `${folded} close variant${folded === 1 ? '' : 's'} (within a step or 3 % on every parameter) fold under them.` : 'none of them is a close variant of another.'
 }
 
-/**
- * The n best by rank, each parameter set once, kept as candidates are offered: the same as
- * bestOf over every candidate in the order offered (the sort is stable, so of equal keys the
- * earlier stays ahead, and a repeated parameter set has an equal key), without holding them
- * all. Keys are rankKey's four numbers, then the window margin.
- */
-class BestList {
-  readonly items: Scored[] = []
-  /** The rank keys of the items, four numbers each (rankKey). */
-  readonly keys: Float64Array
-
-  constructor(readonly n: number) {
-    this.keys = new Float64Array(4 * (n + 1))
-  }
-
-  get full(): boolean {
-    return this.items.length >= this.n
-  }
-
-  /** A full list whose worst item already ranks ahead on the margin and safety bands alone. */
-  outOnBands(m: number, s: number): boolean {
-    const o = 4 * (this.items.length - 1)
-    return this.items.length >= this.n && (m > this.keys[o] || (m === this.keys[o] && s > this.keys[o + 1]))
-  }
-
-  /** The place a stable sort gives this key, after every item that does not rank below it; n or more: it does not enter. */
-  place(m: number, s: number, area: number, volume: number, windowMargin: number): number {
-    const { items, keys } = this
-    let at = items.length
-    while (at > 0) {
-      const o = 4 * (at - 1)
-      const d = keys[o] !== m ? keys[o] - m : keys[o + 1] !== s ? keys[o + 1] - s : keys[o + 2] !== area ? keys[o + 2] - area : keys[o + 3] !== volume ? keys[o + 3] - volume : windowMargin - items[at - 1].score.windowMargin
-      if (!(d > 0)) break
-      at--
-    }
-    return at
-  }
-
-  /** Whether the same parameter set sits just ahead of `at` among the equal keys (where a repeat would be). */
-  holds(at: number, params: Record<string, number>, m: number, s: number, area: number, volume: number, windowMargin: number): boolean {
-    for (let i = at - 1; i >= 0 && sameRank(this.keys, i, m, s, area, volume) && this.items[i].score.windowMargin === windowMargin; i--) {
-      if (sameParams(this.items[i].params, params)) return true
-    }
-    return false
-  }
-
-  insert(at: number, item: Scored, m: number, s: number, area: number, volume: number): void {
-    const { items, keys } = this
-    keys.copyWithin(4 * (at + 1), 4 * at, 4 * items.length)
-    items.splice(at, 0, item)
-    keys[4 * at] = m
-    keys[4 * at + 1] = s
-    keys[4 * at + 2] = area
-    keys[4 * at + 3] = volume
-    if (items.length > this.n) items.pop()
-  }
-
-  /** Merges another list's items after this one's (a later unit's): bestOf over the concatenation. */
-  merge(other: BestList): void {
-    for (let i = 0; i < other.items.length; i++) {
-      const o = 4 * i
-      const item = other.items[i]
-      const k = other.keys
-      const at = this.place(k[o], k[o + 1], k[o + 2], k[o + 3], item.score.windowMargin)
-      if (at < this.n) this.insert(at, item, k[o], k[o + 1], k[o + 2], k[o + 3])
-    }
-  }
-}
-
-function sameRank(keys: Float64Array, i: number, m: number, s: number, area: number, volume: number): boolean {
-  const o = 4 * i
-  return keys[o] === m && keys[o + 1] === s && keys[o + 2] === area && keys[o + 3] === volume
-}
-
-/** Equal numbers under every key: what equal JSON means for finite parameter values. */
-function sameParams(a: Record<string, number>, b: Record<string, number>): boolean {
-  for (const key in b) if (a[key] !== b[key]) return false
-  return true
-}
-
-/**
- * Builds the Scored of the candidate being considered at most once, from the judge's raw
- * numbers; no closure per candidate.
- */
-class UnitKeeper {
-  private params: Record<string, number> | null = null
-  private kept: Scored | null = null
-
-  constructor(private readonly unit: Unit, private readonly judge: CandidateJudge) {}
-
-  /** Starts a new candidate. */
-  reset(): void {
-    this.params = null
-    this.kept = null
-  }
-
-  /** The Scored of `params`, which the judge has just judged. */
-  scored(params: Record<string, number>): Scored {
-    if (this.kept && this.params === params) return this.kept
-    this.params = params
-    this.kept = scored(this.unit, params, this.judge.scoreJudged())
-    return this.kept
-  }
-}
-
-/** The n best by rank, each parameter set once. */
 /** The explanation's sentence on results the exact check dropped (empty when none was). */
 function droppedSentence(dropped: DroppedResult[]): string {
   if (!dropped.length) return ''
   const named = dropped.slice(0, 3).map((d) => `${d.entryName}: ${d.reason}${d.uncertain.length ? ` (the estimate was marked uncertain: ${d.uncertain.join(', ')})` : ''}`)
   return ` ${dropped.length} configuration${dropped.length === 1 ? ' was' : 's were'} dropped because the exact method contradicts the fast estimate — ${named.join('; ')}${dropped.length > 3 ? `; and ${dropped.length - 3} more` : ''}.`
-}
-
-function bestOf(list: Scored[], n: number): Scored[] {
-  const keyed = list.map((s) => ({ s, key: rankKey(rankOf(s)) }))
-  keyed.sort((a, b) => compareRankKeys(a.key, b.key, a.s.score.windowMargin, b.s.score.windowMargin))
-  const seen = new Set<string>()
-  const out: Scored[] = []
-  for (const { s } of keyed) {
-    const id = `${s.unit.entry.id}|${s.unit.material.id}|${JSON.stringify(s.params)}`
-    if (seen.has(id)) continue
-    seen.add(id)
-    out.push(s)
-    if (out.length === n) break
-  }
-  return out
 }
 
 function prepare(rawWindow: unknown, options: SearchOptions): ForceWindow {

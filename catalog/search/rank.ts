@@ -37,7 +37,18 @@ export function rankKey(r: Rankable): [number, number, number, number] {
 
 /** The one ranking: keys in order, then the larger window margin first. */
 export function compareRankKeys(ka: readonly number[], kb: readonly number[], marginA: number, marginB: number): number {
-  for (let i = 0; i < ka.length; i++) if (ka[i] !== kb[i]) return ka[i] - kb[i]
+  return compareRankParts(ka[0], ka[1], ka[2], ka[3], marginA, kb[0], kb[1], kb[2], kb[3], marginB)
+}
+
+/**
+ * compareRankKeys on the key's parts as plain numbers (the engine's running lists keep keys in
+ * typed arrays): negative when a ranks first.
+ */
+export function compareRankParts(ma: number, sa: number, areaA: number, volumeA: number, marginA: number, mb: number, sb: number, areaB: number, volumeB: number, marginB: number): number {
+  if (ma !== mb) return ma - mb
+  if (sa !== sb) return sa - sb
+  if (areaA !== areaB) return areaA - areaB
+  if (volumeA !== volumeB) return volumeA - volumeB
   return marginB - marginA
 }
 

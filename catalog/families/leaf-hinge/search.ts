@@ -1,4 +1,5 @@
 /** Search's fast estimate of the leaf hinge (a test holds it to the family's model). */
+import { LRUCache } from 'lru-cache'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { evaluate as leafHingeModel } from './model'
 
@@ -11,8 +12,12 @@ import { evaluate as leafHingeModel } from './model'
  */
 const LEAF_MEMO_LIMIT = 50000
 const LEAF_REFERENCE_MODULUS = 1000
-/** Per memo key: rotationalStiffness at the reference modulus and unit depth, maxRotation, pivotDrift, maxStrain, safetyFactor. */
-const leafMemo = new Map<string, Float64Array>()
+/**
+ * Per memo key: rotationalStiffness at the reference modulus and unit depth, maxRotation,
+ * pivotDrift, maxStrain, safetyFactor. Least recently used keys go first, so a long search
+ * keeps the keys of the entry it is on.
+ */
+const leafMemo = new LRUCache<string, Float64Array>({ max: LEAF_MEMO_LIMIT })
 const LEAF_LAYOUT = layoutOf([['rotationalStiffness', 1], ['maxRotation', 0], ['pivotDrift', 0], ['maxStrain', 0], ['safetyFactor', 0]])
 function leafHingeFill(p: Record<string, number>, E: number, limit: number, out: Float64Array): boolean {
   const key = `${p.length}|${p.thickness}|${p.linkLength}|${limit}`
@@ -20,7 +25,6 @@ function leafHingeFill(p: Record<string, number>, E: number, limit: number, out:
   if (!unit) {
     const m = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit }, method: 'prbm' }).metrics
     unit = Float64Array.from(LEAF_LAYOUT.keys, (k) => (typeof m[k] === 'number' ? (m[k] as number) : NaN))
-    if (leafMemo.size >= LEAF_MEMO_LIMIT) leafMemo.clear()
     leafMemo.set(key, unit)
   }
   out[0] = (unit[0] * E * p.depth) / LEAF_REFERENCE_MODULUS
