@@ -11,6 +11,7 @@ import { ConfigError, loadConfig } from '../config'
 import type { AppContext } from '../context'
 import { openDatabase } from '../db'
 import { HttpError } from '../errors'
+import { connectSigninFailureStore } from '../services/shared-state'
 import {
   addUser, generateSecret, listAccounts, removeDemoAccounts, resetPassword, setRole, unlockByEmail, type PasswordSource,
 } from '../services/admin-accounts'
@@ -22,14 +23,16 @@ const USAGE = `Flexshelf admin commands (npm run --silent admin -- <command> [op
       --generate prints a one-time password the person must change at first sign-in
   list [--json]                         every account with its role
   set-role --email E --role R           any role, admin included
-  unlock --email E                      lift a lock after failed sign-ins
+  unlock --email E                      lift a lock after failed sign-ins (every instance's,
+                                        when FLEXSHELF_REDIS_URL is set)
   reset-password --email E (--password-stdin | --generate)
                                         set a new password; ends every session of the account
   remove-demo                           delete the demo accounts (or take their passwords away
                                         where shelf records point at them), so production starts
   secret                                print a new random secret for FLEXSHELF_JWT_SECRET
 
-Roles: engineer, contributor, librarian, admin. The data folder is FLEXSHELF_DATA (default ./data).`
+Roles: engineer, contributor, librarian, admin. The data folder is FLEXSHELF_DATA (default ./data);
+with FLEXSHELF_DATABASE_URL the commands work on that PostgreSQL database instead.`
 
 class UsageError extends Error {}
 
@@ -60,11 +63,14 @@ function required(values: Record<string, unknown>, name: string): string {
 async function withDatabase<T>(work: (context: AppContext) => Promise<T>): Promise<T> {
   // the CLI signs no tokens, so it needs no JWT secret (production refuses to start the server without one)
   const config = loadConfig(process.env, { jwtSecret: 'the-admin-command-line-signs-no-tokens' })
-  const db = await openDatabase(config.databaseFile)
+  // the same database and (for unlock) the same shared sign-in failure counts as the servers
+  const db = await openDatabase(config.databaseUrl ?? config.databaseFile)
+  const context = { config, db }
+  const shared = config.redisUrl ? connectSigninFailureStore(context, config.redisUrl) : null
   try {
-    return await work({ config, db })
+    return await work(context)
   } finally {
-    await db.close()
+    await Promise.allSettled([shared?.close(), db.close()])
   }
 }
 

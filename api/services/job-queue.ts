@@ -25,6 +25,8 @@ import { HttpError } from '../errors'
 import { ComputeBudgetExceededError, ComputeBusyError, type ComputeAsk } from './compute/budget'
 import { fromFailure, type ComputeFailure, type ComputeTask } from './compute/tasks'
 import type { SearchTask } from './search/protocol'
+import { Gauge } from 'prom-client'
+import { metricsRegistry } from './metrics'
 import { connectRedis } from './redis'
 
 export const COMPUTE_QUEUE = 'flexshelf-compute'
@@ -91,12 +93,54 @@ interface Connection {
 
 let connection: Connection | null = null
 
+const JOB_STATES = ['waiting', 'active', 'failed', 'delayed'] as const
+const QUEUE_JOBS_METRIC = 'flexshelf_queue_jobs'
+const QUEUE_WORKERS_METRIC = 'flexshelf_queue_workers'
+
+/**
+ * The queues' gauges in /metrics, read from Redis at each scrape, so every instance reports the
+ * same shared numbers. Registered only while the queue is configured: a single process has no
+ * queue and shows none (its compute pool has flexshelf_compute_queue_depth).
+ */
+function registerQueueGauges(c: Connection): void {
+  unregisterQueueGauges()
+  const queues = [c.compute, c.search]
+  new Gauge({
+    name: QUEUE_JOBS_METRIC,
+    help: 'Jobs on the shared Redis queues by queue and state (waiting includes prioritized), read from Redis at scrape time',
+    labelNames: ['queue', 'state'] as const,
+    registers: [metricsRegistry],
+    async collect() {
+      const counts = await Promise.all(queues.map((q) => q.getJobCounts(...JOB_STATES, 'prioritized')))
+      queues.forEach((q, i) => {
+        for (const state of JOB_STATES) this.set({ queue: q.name, state }, (counts[i][state] ?? 0) + (state === 'waiting' ? counts[i].prioritized ?? 0 : 0))
+      })
+    },
+  })
+  new Gauge({
+    name: QUEUE_WORKERS_METRIC,
+    help: 'Worker processes (npm run worker) connected to each queue now, from Redis\'s client list',
+    labelNames: ['queue'] as const,
+    registers: [metricsRegistry],
+    async collect() {
+      const counts = await Promise.all(queues.map((q) => q.getWorkersCount()))
+      queues.forEach((q, i) => this.set({ queue: q.name }, counts[i]))
+    },
+  })
+}
+
+function unregisterQueueGauges(): void {
+  metricsRegistry.removeSingleMetric(QUEUE_JOBS_METRIC)
+  metricsRegistry.removeSingleMetric(QUEUE_WORKERS_METRIC)
+}
+
 export const jobQueueActive = () => connection !== null
 
 /** Connects this API process to the queues (redisUrl) or back to in-process work (null). */
 export async function configureJobQueue(redisUrl: string | null, budgetMs: () => number): Promise<void> {
   const old = connection
   connection = null
+  unregisterQueueGauges()
   if (old) {
     await Promise.allSettled([old.compute.close(), old.search.close(), old.computeEvents.close(), old.searchEvents.close()])
     await old.redis.quit().catch(() => undefined)
@@ -113,6 +157,7 @@ export async function configureJobQueue(redisUrl: string | null, budgetMs: () =>
   }
   await Promise.all([next.computeEvents.waitUntilReady(), next.searchEvents.waitUntilReady()])
   connection = next
+  registerQueueGauges(next)
 }
 
 /** How long the API waits for a picked-up job at most: its budget, two stalled-job recoveries and their re-runs. */

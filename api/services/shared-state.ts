@@ -64,6 +64,16 @@ export class RedisSigninFailureStore implements SigninFailureStore {
   }
 }
 
+/**
+ * Only the sign-in failure counts, for a process that is not an API instance (the admin command
+ * line's `unlock`): clearing them here clears them for every instance. Answers the closer.
+ */
+export function connectSigninFailureStore(context: AppContext, url: string): { close(): Promise<void> } {
+  const redis = connectRedis(url, 'admin-cli')
+  installGuardStores(context, { failures: new RedisSigninFailureStore(redis) })
+  return { close: async () => { await redis.quit().catch(() => undefined) } }
+}
+
 export interface SharedState {
   redis: Redis
   close(): Promise<void>

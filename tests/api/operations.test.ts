@@ -114,6 +114,7 @@ describe('GET /metrics', () => {
     expect(delta('flexshelf_signin_failures_total', { reason: 'wrong_credentials' })).toBe(1)
     expect(delta('flexshelf_searches_total', { kind: 'direct' })).toBe(1)
     expect(after).toMatch(/^flexshelf_compute_queue_depth 0$/m)
+    expect(after).not.toMatch(/flexshelf_queue_/) // the shared queue's gauges only with FLEXSHELF_REDIS_URL
     expect(after).toMatch(/^flexshelf_process_resident_memory_bytes \d+/m)
   })
 })

@@ -6,6 +6,11 @@
  * answer, the same as the undisturbed run; an API instance killed in the middle of writes loses
  * nothing it acknowledged.
  */
+import { execFile } from 'node:child_process'
+import { mkdtempSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { promisify } from 'node:util'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, DEMO_USERS } from '../../api/db/demo-shelf'
 import { api, startArrangement, type Arrangement, type Proc } from '../../scripts/support/arrangement'
@@ -17,10 +22,19 @@ let workers: Proc[]
 const token = {} as Record<string, string>
 const email = (role: string) => DEMO_USERS.find((u) => u.role === role)!.email
 let switchId: number
+const METRICS_TOKEN = 'Qm7-arrangement-Vx2pL9wKc4TzR8nB3hYd6Fj0Gs5'
+const withMetrics = { FLEXSHELF_METRICS_TOKEN: METRICS_TOKEN }
+
+/** One sample of a Prometheus text exposition (null when the series is absent). */
+function sample(text: string, name: string, labels: Record<string, string>): number | null {
+  const wanted = Object.entries(labels).map(([k, v]) => `${k}="${v}"`)
+  const line = text.split('\n').find((l) => l.startsWith(`${name}{`) && wanted.every((w) => l.includes(w)))
+  return line ? Number(line.slice(line.lastIndexOf(' ') + 1)) : null
+}
 
 beforeAll(async () => {
   a = await startArrangement()
-  ;[one, two] = await Promise.all([a.startApi('api-1'), a.startApi('api-2')])
+  ;[one, two] = await Promise.all([a.startApi('api-1', withMetrics), a.startApi('api-2', withMetrics)])
   workers = await Promise.all([a.startWorker('worker-1'), a.startWorker('worker-2')])
   for (const role of ['engineer', 'contributor', 'librarian']) {
     const res = await api(one.url!, '/api/auth/signin', null, { body: { email: email(role), password: DEMO_PASSWORD } })
@@ -88,6 +102,30 @@ describe('two API instances on one PostgreSQL, Redis and bucket', () => {
       if (res.status === 429) return
     }
     throw new Error('twelve wrong passwords over two instances were never slowed down')
+  })
+
+  it('lifts those delays on every instance with the admin command line\'s unlock', async () => {
+    const delayed = await api(one.url!, '/api/auth/signin', null, { body: { email: email('admin'), password: DEMO_PASSWORD } })
+    expect(delayed.status).toBe(429) // the right password too, while the delay lasts
+    const cli = await promisify(execFile)(process.execPath, ['--import', 'tsx', 'api/cli/admin.ts', 'unlock', '--email', email('admin')], {
+      cwd: join(import.meta.dirname, '..', '..'),
+      env: { ...process.env, ...a.env, FLEXSHELF_DATA: mkdtempSync(join(tmpdir(), 'flexshelf-cli-')) },
+    })
+    expect(cli.stderr).toContain('is unlocked')
+    for (const p of [one, two]) {
+      const res = await api(p.url!, '/api/auth/signin', null, { body: { email: email('admin'), password: DEMO_PASSWORD } })
+      expect(res.status, JSON.stringify(res.body)).toBe(200)
+    }
+  })
+
+  it('reports the shared queues in /metrics: jobs by state and the two workers on each queue', async () => {
+    const res = await fetch(`${two.url}/metrics`, { headers: { Authorization: `Bearer ${METRICS_TOKEN}` } })
+    expect(res.status).toBe(200)
+    const text = await res.text()
+    for (const queue of ['flexshelf-compute', 'flexshelf-search']) {
+      expect(sample(text, 'flexshelf_queue_workers', { queue })).toBe(2)
+      for (const state of ['waiting', 'active', 'failed', 'delayed']) expect(sample(text, 'flexshelf_queue_jobs', { queue, state })).toBe(0)
+    }
   })
 })
 
