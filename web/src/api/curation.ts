@@ -24,6 +24,7 @@ export type CalibrationGroup = z.infer<typeof contract.CalibrationGroup>
 export type EntryCalibration = z.infer<typeof contract.EntryCalibration>
 export type ReviewQueue = z.infer<typeof contract.ReviewQueue>
 export type OutboxMessage = z.infer<typeof contract.OutboxMessage>
+export type ReportCurve = z.infer<(typeof contract.responseContract)['GET /api/reports/:id/curve']>
 
 export type ProposalSummary = EntrySummary & { proposalForId?: number | null }
 
@@ -121,6 +122,8 @@ export const reportsApi = {
   reject: (reportId: number, note?: string) => request<{ report: TestReportWithEntry }>('POST', `/api/reports/${id(reportId)}/reject`, { body: note ? { note } : {} }).then((r) => r.report),
   adoptModulus: (reportId: number, name?: string) => request<{ material: Material }>('POST', `/api/reports/${id(reportId)}/adopt-modulus`, { body: name ? { name } : {} }).then((r) => r.material),
   calibration: (entryId: number) => request<{ calibration: EntryCalibration }>('GET', `/api/entries/${id(entryId)}/calibration`).then((r) => r.calibration),
+  /** Every point of a measured curve (entry pages carry a preview of at most 400). */
+  curve: (reportId: number) => request<ReportCurve>('GET', `/api/reports/${id(reportId)}/curve`),
   file: (reportId: number) => requestBlob(`/api/reports/${id(reportId)}/file`),
   photo: (reportId: number) => requestBlob(`/api/reports/${id(reportId)}/photo`),
 }

@@ -87,10 +87,17 @@ export function useEntryReports(entry: Ref<EntryDetail | null>) {
     return r
   }
 
+  /** Replaces a report's drawing preview with its whole curve (the overlay then draws every point). */
+  async function drawAllPoints(report: TestReport) {
+    const r = await run(report.id, () => reportsApi.curve(report.id))
+    if (r.ok) replace({ ...report, measuredCurve: r.value.measuredCurve })
+    return r
+  }
+
   async function photoUrl(report: TestReport) {
     const r = await run(report.id, () => reportsApi.photo(report.id))
     return r.ok ? { ok: true as const, url: URL.createObjectURL(r.value) } : r
   }
 
-  return { reports, visible, curves, hasMeasured, hasPending, calibration, isLibrarian, canUpload, busyId, added, decide, adopt, download, photoUrl }
+  return { reports, visible, curves, hasMeasured, hasPending, calibration, isLibrarian, canUpload, busyId, added, decide, adopt, download, drawAllPoints, photoUrl }
 }
