@@ -88,9 +88,9 @@ export interface OidcSettings {
 
 /** bcrypt cost of 2^12 rounds: about a quarter second per hash on a laptop core. */
 export const DEFAULT_BCRYPT_COST = 12
-export const MIN_PRODUCTION_SECRET_LENGTH = 32
+const MIN_PRODUCTION_SECRET_LENGTH = 32
 /** One compute thread per core beyond the one serving requests, at least one and at most two. */
-export const DEFAULT_COMPUTE_THREADS = Math.max(1, Math.min(2, availableParallelism() - 1))
+const DEFAULT_COMPUTE_THREADS = Math.max(1, Math.min(2, availableParallelism() - 1))
 const JWT_SECRET_FILE = 'jwt-secret'
 
 const projectRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..')

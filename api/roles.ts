@@ -4,7 +4,6 @@ export type Role = (typeof ROLES)[number]
 
 /** The roles an admin may grant or revoke; admin itself is given out of band. */
 export const ASSIGNABLE_ROLES = ['engineer', 'contributor', 'librarian'] as const
-export type AssignableRole = (typeof ASSIGNABLE_ROLES)[number]
 
 export function roleRank(role: Role): number {
   return ROLES.indexOf(role)

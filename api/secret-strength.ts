@@ -9,10 +9,10 @@
  * patterns, never a secret from `openssl rand`. The estimate is generous to a typed phrase,
  * which is why the length rule comes first.
  */
-export const MIN_SECRET_BITS = 96
+const MIN_SECRET_BITS = 96
 
 /** Shannon entropy of the string's characters, in bits for the whole string. */
-export function shannonBits(value: string): number {
+function shannonBits(value: string): number {
   const chars = [...value]
   const counts = new Map<string, number>()
   for (const c of chars) counts.set(c, (counts.get(c) ?? 0) + 1)

@@ -6,7 +6,7 @@ import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import express, { type Express, type Request, type Response } from 'express'
 
-export const MISSING_BUILD_TEXT = [
+const MISSING_BUILD_TEXT = [
   'Flexshelf: the web app has not been built yet.',
   '',
   'Run `npm run build` (or simply `npm start`, which builds first) and reload this page.',

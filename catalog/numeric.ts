@@ -1,5 +1,5 @@
 /** Relative tolerance used by every floating-point comparison in the core. */
-export const RELATIVE_EPSILON = 1e-9
+const RELATIVE_EPSILON = 1e-9
 
 /** True when a and b agree to a relative (or, near zero, absolute) tolerance. */
 export function nearlyEqual(a: number, b: number, tolerance = RELATIVE_EPSILON): boolean {

@@ -14,7 +14,7 @@ import { Sequelize } from 'sequelize'
 // busy_timeout first, so the others wait for a lock rather than fail; WAL lets readers
 // run beside the one writer; synchronous=FULL because a committed change must survive
 // a power cut (the data folder is the only copy).
-export const CONNECTION_PRAGMAS = [
+const CONNECTION_PRAGMAS = [
   'PRAGMA busy_timeout = 5000',
   'PRAGMA foreign_keys = ON',
   'PRAGMA journal_mode = WAL',
@@ -51,7 +51,10 @@ function prepareEveryConnection(sequelize: Sequelize): void {
   }
 }
 
-/** True for a postgres:// (or postgresql://) URL; anything else names an SQLite file. */
+/**
+ * True for a postgres:// (or postgresql://) URL; anything else names an SQLite file.
+ * @public tests/api/setup-database.ts calls it through the mocked module's original.
+ */
 export function isPostgresUrl(target: string): boolean {
   return /^postgres(ql)?:\/\//i.test(target)
 }

@@ -24,5 +24,4 @@ export async function openDatabase(target: string, options: PostgresOptions = {}
   return { sequelize, models, write: createWriteQueue(sequelize), close: () => sequelize.close() }
 }
 
-export type { Models }
 export * from './models'

@@ -19,7 +19,7 @@ declare global {
 }
 
 /** method + path (relative to /api) of the routes that need no sign-in. */
-export const PUBLIC_ROUTES: ReadonlyArray<{ method: string; path: string }> = [
+const PUBLIC_ROUTES: ReadonlyArray<{ method: string; path: string }> = [
   { method: 'GET', path: '/health' },
   { method: 'POST', path: '/auth/signup' },
   { method: 'POST', path: '/auth/signin' },

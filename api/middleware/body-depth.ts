@@ -8,10 +8,10 @@ import type { NextFunction, Request, Response } from 'express'
 import { HttpError } from '../errors'
 
 /** Deepest nesting any route's body has is about 5 (window.peakForce.min); 32 leaves room. */
-export const MAX_BODY_DEPTH = 32
+const MAX_BODY_DEPTH = 32
 
 /** The nesting depth of a parsed JSON value, stopping as soon as it passes `limit`. */
-export function jsonDepth(value: unknown, limit = MAX_BODY_DEPTH): number {
+function jsonDepth(value: unknown, limit = MAX_BODY_DEPTH): number {
   let deepest = 0
   const stack: Array<[unknown, number]> = [[value, 0]]
   while (stack.length) {

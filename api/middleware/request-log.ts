@@ -16,7 +16,7 @@ const TOKEN_LIKE = /^[A-Za-z0-9_-]{20,}$/
 const REQUEST_ID = /^[A-Za-z0-9._-]{1,64}$/
 
 /** The URL as it may be logged: query values and token-like path segments replaced. */
-export function loggableUrl(url: string): string {
+function loggableUrl(url: string): string {
   const [path, query] = url.split('?', 2)
   const safePath = path.split('/').map((segment) => (TOKEN_LIKE.test(segment) ? '[redacted]' : segment)).join('/')
   if (query === undefined) return safePath
@@ -33,7 +33,7 @@ function decodeURIComponentSafe(s: string): string {
 }
 
 /** The route pattern the request matched (set by the role gates), or what it was instead. */
-export function routeLabel(req: Request, res: Response): string {
+function routeLabel(req: Request, res: Response): string {
   const route = res.locals.route as string | undefined
   if (route) return route
   if (req.originalUrl === '/metrics') return '/metrics'

@@ -10,7 +10,7 @@ import { guardStores, normalizeEmail, signinGuard } from '../services/signin-gua
 import { toUserView } from '../services/users'
 
 /** The client address as the rate limits and delays key it (IPv6 by its /56, express-rate-limit's default). */
-export const clientAddress = (req: Request) => ipKeyGenerator(req.ip ?? '')
+const clientAddress = (req: Request) => ipKeyGenerator(req.ip ?? '')
 
 function limitHandler(what: string) {
   return (_req: Request, res: Response, next: (err: unknown) => void, options: { windowMs: number }) => {

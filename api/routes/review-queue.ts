@@ -6,11 +6,11 @@ import { allow } from '../middleware/require-role'
 import { reviewQueueEntries } from '../services/curation'
 import { reviewQueueReports, type QueuePage } from '../services/reports'
 
-export const QUEUE_PAGE_DEFAULT = 50
-export const QUEUE_PAGE_MAX = 100
+const QUEUE_PAGE_DEFAULT = 50
+const QUEUE_PAGE_MAX = 100
 
 /** ?limit (1–100, 50 by default) and ?offset (from 0), applied to the entries and the reports alike. */
-export function parseQueuePage(query: Record<string, unknown>): QueuePage {
+function parseQueuePage(query: Record<string, unknown>): QueuePage {
   const issues: Array<{ field: string; message: string }> = []
   const read = (key: 'limit' | 'offset', fallback: number, min: number, max: number) => {
     const raw = query[key]

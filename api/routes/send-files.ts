@@ -7,7 +7,7 @@ import { renderDatasheetPdf } from '../services/datasheet-pdf'
 import type { DownloadFile } from '../services/downloads'
 
 /** Notices of a binary download travel in this header, joined by " | " (plain ASCII). */
-export const NOTICE_HEADER = 'Flexshelf-Notice'
+const NOTICE_HEADER = 'Flexshelf-Notice'
 
 function setNotices(res: Response, notices: string[]): void {
   if (!notices.length) return

@@ -30,7 +30,7 @@ function operator(): string {
 const viaCli = () => ({ via: 'command line', by: operator() })
 
 /** A one-time password: 120 random bits in base64url (20 characters), to be replaced at first sign-in. */
-export function generatePassword(): string {
+function generatePassword(): string {
   return randomBytes(15).toString('base64url')
 }
 

@@ -19,11 +19,10 @@ import { readCache } from './read-cache'
 import { assertPasswordSignin, assertSignupAllowed } from './signup-policy'
 import { toUserView, type UserView } from './users'
 
-export { newPasswordField, PASSWORD_MAX_BYTES, PASSWORD_MIN_LENGTH } from './password-policy'
 const JWT_ALGORITHM = 'HS256' as const
 const WRONG_CREDENTIALS = 'e-mail or password is wrong'
 /** How long a token's user lookup may be reused at most, ms. */
-export const SESSION_RECHECK_MS = 10_000
+const SESSION_RECHECK_MS = 10_000
 
 export const emailField = z
   .string({ error: (iss) => (iss.input === undefined ? 'email is required' : 'email must be text') })

@@ -12,7 +12,7 @@ const MUTED = '#535F67'
 const LINE = '#D8D7CF'
 const WINDOW = '#0B6E5A'
 /** One colour per candidate (the web app's compare palette). */
-export const CANDIDATE_COLOURS = ['#2F6690', '#B5542A', '#5B7F2A', '#7A4C8F']
+const CANDIDATE_COLOURS = ['#2F6690', '#B5542A', '#5B7F2A', '#7A4C8F']
 
 const fmt = (v: number | boolean | null | undefined) => {
   if (v === null || v === undefined) return '–'

@@ -15,7 +15,7 @@ import { checkTarget, configureTarget, loadEntry, resolveFor, type CheckResult }
 import { openOwn, resolveSaved } from './configurations'
 import { neutraliseCsvFormulae } from './csv-safety'
 
-export const MAX_COMPARED = 4
+const MAX_COMPARED = 4
 
 const paramValue = z.union([z.number(), z.string().max(64)])
 const itemSchema = z.union([
@@ -42,19 +42,19 @@ export function parseCompareQuery(query: Record<string, unknown>): CompareItem[]
 }
 
 /** Which way is better for a metric, where the trade says so; null when it depends on the design. */
-export function betterDirection(key: string): 'higher' | 'lower' | null {
+function betterDirection(key: string): 'higher' | 'lower' | null {
   if (/safety/i.test(key) || key === 'holdingForce' || key === 'energyBarrier' || key === 'retentionForce' || key === 'rotation' || key === 'travel') return 'higher'
   if (/strain/i.test(key) || /stress/i.test(key) || key === 'parasitic' || key === 'parasiticMotion') return 'lower'
   return null
 }
 
-export interface ComparedCandidate {
+interface ComparedCandidate {
   label: string
   source: { kind: 'result'; entryId: number; params: Record<string, number | string> } | { kind: 'saved'; configurationId: number; name: string }
   check: CheckResult
 }
 
-export interface MetricRow {
+interface MetricRow {
   key: string
   label: string
   unit: string
@@ -74,7 +74,7 @@ export interface Comparison {
   cautions: string[]
 }
 
-export const COMPARISON_CAUTIONS = [
+const COMPARISON_CAUTIONS = [
   'Every figure is an estimate from a published model and nominal material data: confirm it on printed parts.',
   'Polymers creep under sustained load and fatigue under repeated cycling.',
   'Parts whose failure could hurt someone must follow the applicable codes and pass qualified engineering review.',

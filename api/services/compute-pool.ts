@@ -27,17 +27,17 @@ import { jobQueueActive, runQueued } from './job-queue'
 import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask } from './compute/tasks'
 import { computeJobDuration, setComputeQueueProbe } from './metrics'
 
-export { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS } from './compute/budget'
+export { ComputeBudgetExceededError, DEFAULT_COMPUTE_BUDGET_MS } from './compute/budget'
 
 const ENTRY = new URL('./compute/worker-entry.mjs', import.meta.url)
 
 /** Tasks waiting per compute thread before new ones are refused (a few seconds of work at most). */
-export const COMPUTE_QUEUE_PER_THREAD = 16
+const COMPUTE_QUEUE_PER_THREAD = 16
 /** Password hashes waiting before new sign-ins are refused: about 8 s of bcrypt at cost 12 on one thread. */
-export const PASSWORD_QUEUE = 32
+const PASSWORD_QUEUE = 32
 
 /** Old-generation heap of one compute thread, MB. */
-export const COMPUTE_THREAD_HEAP_MB = 512
+const COMPUTE_THREAD_HEAP_MB = 512
 
 type Pool = Piscina<ComputeTask & { started?: MessagePort }, ComputeOutcome>
 

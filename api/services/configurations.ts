@@ -23,7 +23,7 @@ const createBody = bodySchema({
 })
 
 /** Where the web app shows a shared configuration (the API route is /api/shared/:token). */
-export const sharePath = (token: string) => `/shared/${token}`
+const sharePath = (token: string) => `/shared/${token}`
 
 type RevisionRef = { id: number; number: number } | null
 
@@ -74,11 +74,11 @@ function revisionNotice(saved: RevisionRef, current: RevisionRef): string | null
 }
 
 /** Said on a configuration whose saved values are no longer accepted. */
-export const OUT_OF_RANGE_NOTICE =
+const OUT_OF_RANGE_NOTICE =
   'This configuration was saved with values Flexshelf no longer accepts; correct them in the configurator and save it again:'
 
 /** The saved values' problems under today's checks: empty when they resolve. */
-export function problemsOf(target: ConfigureTarget, raw: RawConfiguration): FieldIssue[] {
+function problemsOf(target: ConfigureTarget, raw: RawConfiguration): FieldIssue[] {
   try {
     resolveFor(target, raw)
     return []
@@ -156,7 +156,7 @@ async function targetOf(context: AppContext, loaded: Loaded): Promise<ConfigureT
   }
 }
 
-export function rawOf(c: SavedConfiguration): RawConfiguration {
+function rawOf(c: SavedConfiguration): RawConfiguration {
   return { params: c.params, method: c.method ?? undefined, window: c.window ?? undefined, tolerance: c.tolerance ?? undefined, printer: c.printer ?? undefined }
 }
 
@@ -240,7 +240,7 @@ export async function deleteConfiguration(context: AppContext, viewer: User, id:
 }
 
 /** 24 random bytes (192 bits) as base64url: 32 characters nobody guesses. */
-export function newShareToken(): string {
+function newShareToken(): string {
   return randomBytes(24).toString('base64url')
 }
 

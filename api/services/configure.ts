@@ -34,10 +34,10 @@ export interface ConfigureTarget {
 
 export const RETIRED_NOTICE =
   'This entry is retired: it stays available for parts already made from it, but look on the shelf for its successor before using it in a new design.'
-export const UNRELEASED_NOTICE =
+const UNRELEASED_NOTICE =
   'This entry is not released yet: its ranges and numbers have not been reviewed by a librarian.'
 
-export function entryNotices(entry: Pick<Entry, 'status'>): string[] {
+function entryNotices(entry: Pick<Entry, 'status'>): string[] {
   if (entry.status === 'retired') return [RETIRED_NOTICE]
   if (entry.status !== 'released') return [UNRELEASED_NOTICE]
   return []
@@ -69,7 +69,7 @@ export function resolveFor(target: ConfigureTarget, raw: RawConfiguration): Conf
 }
 
 /** The family's own numeric parameters of an evaluation (material fields left out). */
-export function numericParams(family: FamilyDefinition, evaluation: Pick<Evaluation, 'params'>): Record<string, number> {
+function numericParams(family: FamilyDefinition, evaluation: Pick<Evaluation, 'params'>): Record<string, number> {
   const out: Record<string, number> = {}
   for (const spec of family.params) out[spec.key] = evaluation.params[spec.key] as number
   return out
@@ -91,10 +91,9 @@ export function askedOf(target: ConfigureTarget, input: ConfigurationInput, purp
 }
 
 // The answers' shapes are the wire contract's (contract/api.ts).
-export type BandView = z.infer<typeof contract.BandView>
 export type CheckResult = z.infer<typeof contract.CheckResult>
 
-export const PRINTABILITY_BASIS = 'common practice (FDM rules of thumb, not a published standard)'
+const PRINTABILITY_BASIS = 'common practice (FDM rules of thumb, not a published standard)'
 
 /** The check (or, with task 'datasheet', the data sheet's check): band and printability on the compute pool, under its budget. */
 export async function checkTarget(target: ConfigureTarget, input: ConfigurationInput, task: 'check' | 'datasheet' = 'check'): Promise<CheckResult> {

@@ -8,8 +8,8 @@ import { chmodSync, existsSync, mkdirSync, readdirSync } from 'node:fs'
 import { join } from 'node:path'
 import type { Config } from '../config'
 
-export const PRIVATE_FOLDER_MODE = 0o700
-export const PRIVATE_FILE_MODE = 0o600
+const PRIVATE_FOLDER_MODE = 0o700
+const PRIVATE_FILE_MODE = 0o600
 
 /** The database file and the files SQLite keeps beside it. */
 const databaseFiles = (databaseFile: string) => [databaseFile, `${databaseFile}-wal`, `${databaseFile}-shm`, `${databaseFile}-journal`]

@@ -126,7 +126,7 @@ function table(doc: Doc, columns: Column[], rows: string[][]): void {
 }
 
 /** 1, 2 or 5 × 10ⁿ, about `count` steps across [lo, hi]. */
-export function niceStep(lo: number, hi: number, count = 6): number {
+function niceStep(lo: number, hi: number, count = 6): number {
   const raw = Math.max((hi - lo) / count, 1e-9)
   const power = 10 ** Math.floor(Math.log10(raw))
   const mult = [1, 2, 5, 10].find((m) => m * power >= raw)!

@@ -20,8 +20,7 @@ export const DATASHEET_CAUTIONS: readonly string[] = Object.freeze([
 
 // The answers' shapes are the wire contract's (contract/api.ts).
 export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
-export type CurveMarker = z.infer<typeof contract.CurveMarker>
-export type DatasheetMetric = z.infer<typeof contract.DatasheetMetric>
+type CurveMarker = z.infer<typeof contract.CurveMarker>
 export type Datasheet = z.infer<typeof contract.Datasheet>
 
 const RAD_PER_DEG = Math.PI / 180
@@ -29,7 +28,7 @@ const RAD_PER_DEG = Math.PI / 180
 type Range = { min?: number; max?: number } | undefined
 
 /** The window's bounds in the curve's units (only the quantities the curve can show). */
-export function windowOverlay(window: ForceWindow | null, family: FamilyDefinition): WindowOverlay[] {
+function windowOverlay(window: ForceWindow | null, family: FamilyDefinition): WindowOverlay[] {
   if (!window) return []
   const w = window as unknown as Record<string, Range>
   const out: WindowOverlay[] = []
@@ -69,7 +68,7 @@ function forceAt(displacement: number[], force: number[], at: number): number {
 }
 
 /** Stable and unstable positions a bistable module reports (its rest position at 0 included). */
-export function curveMarkers(metrics: Record<string, MetricValue>, curve: { displacement: number[]; force: number[] }): CurveMarker[] {
+function curveMarkers(metrics: Record<string, MetricValue>, curve: { displacement: number[]; force: number[] }): CurveMarker[] {
   const out: CurveMarker[] = []
   const unstable = metrics.unstablePosition
   const second = metrics.secondStablePosition

@@ -48,7 +48,7 @@ function toEntrySummary(entry: Entry) {
 
 export type EntrySummary = ReturnType<typeof toEntrySummary>
 
-export function toRevisionView(revision: EntryRevision) {
+function toRevisionView(revision: EntryRevision) {
   return {
     id: revision.id,
     number: revision.number,
@@ -71,7 +71,7 @@ export const PREVIEW_POINTS = 400
  * equal point count, each kept as its lowest and highest force in the order they came (min-max
  * decimation, so peaks and valleys stay on the plot); the first and last point always.
  */
-export function previewCurve(curve: { displacement: number[]; force: number[] }, max = PREVIEW_POINTS): { displacement: number[]; force: number[] } {
+function previewCurve(curve: { displacement: number[]; force: number[] }, max = PREVIEW_POINTS): { displacement: number[]; force: number[] } {
   const n = curve.displacement.length
   if (n <= max) return curve
   const keep = new Set<number>([0, n - 1])

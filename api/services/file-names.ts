@@ -7,7 +7,7 @@
 import type { FamilyDefinition } from '../../catalog'
 
 /** Longest entry slug kept in a file name (cut at a word boundary). */
-export const MAX_ENTRY_SLUG = 32
+const MAX_ENTRY_SLUG = 32
 
 export function slugify(text: string, max = MAX_ENTRY_SLUG): string {
   const slug = text

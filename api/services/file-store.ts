@@ -33,7 +33,7 @@ function checkedKey(key: string): string {
   return normal
 }
 
-export class LocalFileStore implements FileStore {
+class LocalFileStore implements FileStore {
   readonly description: string
   constructor(private readonly root: string) {
     this.description = `the uploads folder ${root}`
@@ -76,7 +76,7 @@ export class LocalFileStore implements FileStore {
   }
 }
 
-export class S3FileStore implements FileStore {
+class S3FileStore implements FileStore {
   readonly description: string
   private readonly client: S3Client
 

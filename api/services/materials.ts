@@ -14,7 +14,7 @@ export interface MaterialView {
   source: string
 }
 
-export function toMaterialView(m: Material): MaterialView {
+function toMaterialView(m: Material): MaterialView {
   return { id: m.id, name: m.name, process: m.process, modulus: m.modulus, strainLimit: m.strainLimit, density: m.density, notes: m.notes, source: m.source }
 }
 

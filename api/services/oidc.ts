@@ -24,7 +24,7 @@ export const FLOW_TTL_SECONDS = 600
 const configurations = new WeakMap<OidcSettings, Promise<client.Configuration>>()
 
 /** The provider's metadata, discovered once (and again after a failure). */
-export function providerConfiguration(settings: OidcSettings): Promise<client.Configuration> {
+function providerConfiguration(settings: OidcSettings): Promise<client.Configuration> {
   let found = configurations.get(settings)
   if (!found) {
     const insecure = new URL(settings.issuer).protocol === 'http:'
@@ -52,7 +52,7 @@ interface FlowState {
   next: string
 }
 
-export function safeNext(value: unknown): string {
+function safeNext(value: unknown): string {
   if (typeof value !== 'string' || !value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\') || value.length > 500) return '/'
   return value
 }
@@ -92,7 +92,7 @@ function readFlow(context: AppContext, cookie: string | undefined): FlowState {
 }
 
 /** The highest role any of the person's groups maps to; null when no mapping is configured. */
-export function mapRole(settings: OidcSettings, claims: Record<string, unknown>): Role | null {
+function mapRole(settings: OidcSettings, claims: Record<string, unknown>): Role | null {
   if (!Object.keys(settings.roles).length) return null
   const raw = claims[settings.roleClaim]
   const groups = Array.isArray(raw) ? raw.map(String) : typeof raw === 'string' ? raw.split(/[\s,]+/) : []
@@ -159,5 +159,4 @@ async function linkAccount(context: AppContext, settings: OidcSettings, who: { s
 export function countSsoFailure(): void {
   countSigninFailure('sso')
 }
-
 

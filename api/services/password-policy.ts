@@ -12,11 +12,11 @@ import * as zxcvbnEnglish from '@zxcvbn-ts/language-en'
 import { z } from 'zod'
 import { validationFailed } from '../errors'
 
-export const PASSWORD_MIN_LENGTH = 12
+const PASSWORD_MIN_LENGTH = 12
 /** bcrypt reads only the first 72 bytes of a password; longer ones would be silently cut. */
 export const PASSWORD_MAX_BYTES = 72
 /** zxcvbn scores 0–4; 3 is "safely unguessable: moderate protection from offline slow-hash scenario" (zxcvbn's own scale). */
-export const PASSWORD_MIN_SCORE = 3
+const PASSWORD_MIN_SCORE = 3
 
 /** The shape rules, as a zod field named `field` (password or newPassword). */
 export function newPasswordField(field = 'password') {
@@ -39,13 +39,13 @@ function zxcvbn(): ZxcvbnFactory {
   return estimator
 }
 
-export interface StrengthVerdict {
+interface StrengthVerdict {
   score: number
   /** Why it is weak and what would help, in the estimator's words; '' when strong enough. */
   advice: string
 }
 
-export async function ratePassword(password: string, personalWords: string[] = []): Promise<StrengthVerdict> {
+async function ratePassword(password: string, personalWords: string[] = []): Promise<StrengthVerdict> {
   // the estimator's cost grows with length; past 100 characters nothing changes the verdict
   const words = personalWords.flatMap((w) => w.toLowerCase().split(/[^\p{L}\p{N}]+/u)).filter((w) => w.length >= 3)
   const result = await zxcvbn().check(password.slice(0, 100), words)

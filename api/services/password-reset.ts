@@ -20,7 +20,7 @@ import { passwordChangedNotice } from './password-change'
 import { assertStrongPassword, newPasswordField } from './password-policy'
 import { assertPasswordSignin } from './signup-policy'
 
-export const RESET_TOKEN_LIFETIME_MS = 30 * 60 * 1000
+const RESET_TOKEN_LIFETIME_MS = 30 * 60 * 1000
 /** A second e-mail within this time is not sent (the first is still on its way). */
 const RESEND_AFTER_MS = 60 * 1000
 
@@ -30,7 +30,7 @@ const confirmBody = bodySchema({
   newPassword: newPasswordField('newPassword'),
 })
 
-export const hashResetToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex')
+const hashResetToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex')
 
 /** Checks the body and returns the work to do; the route answers 202 before running it. */
 export function parseResetRequest(context: AppContext, body: unknown): () => Promise<void> {

@@ -12,7 +12,7 @@ export interface ReadinessCheck {
   check: () => Promise<unknown>
 }
 
-export const CHECK_TIMEOUT_MS = 2000
+const CHECK_TIMEOUT_MS = 2000
 
 export function readinessChecks(context: AppContext): ReadinessCheck[] {
   return [

@@ -13,18 +13,18 @@ import type { MeasuredCurve } from '../db/models/test-report'
  * gravity); pound-force → newton 4.448 222 E+00, here to the exact value
  * 0.453 592 37 kg × 9.806 65 m/s² = 4.448 221 615 260 5 N.
  */
-export const LENGTH_TO_MM = { mm: 1, in: 25.4 } as const
-export const FORCE_TO_N = { N: 1, gf: 0.00980665, lbf: 4.4482216152605 } as const
+const LENGTH_TO_MM = { mm: 1, in: 25.4 } as const
+const FORCE_TO_N = { N: 1, gf: 0.00980665, lbf: 4.4482216152605 } as const
 /** Hinge families plot rotation (deg) against moment (N·mm); those files are read as they are. */
 export const ROTATION_UNITS = ['deg'] as const
 export const MOMENT_UNITS = ['N·mm'] as const
 
 export const DISPLACEMENT_UNITS = ['mm', 'in', 'deg'] as const
 export const FORCE_UNITS = ['N', 'gf', 'lbf', 'N·mm'] as const
-export type DisplacementUnit = (typeof DISPLACEMENT_UNITS)[number]
-export type ForceUnit = (typeof FORCE_UNITS)[number]
+type DisplacementUnit = (typeof DISPLACEMENT_UNITS)[number]
+type ForceUnit = (typeof FORCE_UNITS)[number]
 
-export const MIN_POINTS = 5
+const MIN_POINTS = 5
 /**
  * Most data rows one report may hold. A test stand logging at 10 Hz over a 15-minute stroke
  * writes 9,000; every figure drawn or fitted from a report needs far fewer. A 110k-row file
@@ -78,7 +78,7 @@ const BINARY_SIGNATURES: Array<{ bytes: number[]; kind: string }> = [
 ]
 
 /** The file as text, or a clear refusal when its content is not text. */
-export function decodeText(buffer: Buffer): string {
+function decodeText(buffer: Buffer): string {
   if (buffer.length === 0) fail('the file is empty')
   for (const sig of BINARY_SIGNATURES) {
     if (sig.bytes.every((b, i) => buffer[i] === b)) fail(`the file is ${sig.kind}, not a CSV text file`)
@@ -101,7 +101,7 @@ export function decodeText(buffer: Buffer): string {
 }
 
 /** Semicolons (with decimal commas), tabs or commas: the first that splits every one of the first lines alike. */
-export function detectDelimiter(lines: string[]): string {
+function detectDelimiter(lines: string[]): string {
   const sample = lines.filter((l) => l.trim() !== '').slice(0, 20)
   for (const d of [';', '\t', ',', '|']) {
     const counts = sample.map((l) => l.split(d).length - 1)

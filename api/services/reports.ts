@@ -55,7 +55,7 @@ const PNG = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]
 const JPEG = [0xff, 0xd8, 0xff]
 
 /** The photo's type from its first bytes; the name and the browser's claim are not trusted. */
-export function photoTypeOf(buffer: Buffer): 'png' | 'jpeg' | null {
+function photoTypeOf(buffer: Buffer): 'png' | 'jpeg' | null {
   if (PNG.every((b, i) => buffer[i] === b)) return 'png'
   if (JPEG.every((b, i) => buffer[i] === b)) return 'jpeg'
   return null
@@ -185,7 +185,7 @@ function viewOfLoaded(report: LoadedReport, materials: MaterialNumbers) {
 }
 
 /** One report as its entry page shows it (its own row only: no other report is read or compared). */
-export async function reportView(context: AppContext, viewer: User, reportId: number) {
+async function reportView(context: AppContext, viewer: User, reportId: number) {
   await loadVisibleReport(context, viewer, reportId)
   const report = (await context.db.models.TestReport.findByPk(reportId, { include: reportIncludes(context) })) as LoadedReport | null
   if (!report?.entry) throw notFound('test report')

@@ -19,7 +19,7 @@ const PREFIX = 'flexshelf:'
 const WRITES_CHANNEL = `${PREFIX}writes`
 
 /** Failures per account as one hash: field = address, value = "failures:lastFailureAt"; the key expires a day after the last failure. */
-export class RedisSigninFailureStore implements SigninFailureStore {
+class RedisSigninFailureStore implements SigninFailureStore {
   constructor(private readonly redis: Redis) {}
 
   private key(account: string): string {

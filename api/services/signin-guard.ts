@@ -51,7 +51,7 @@ export interface SigninFailureStore {
 }
 
 /** Failures are forgotten a day after the last one. */
-export const FAILURE_MEMORY_MS = 24 * 60 * 60 * 1000
+const FAILURE_MEMORY_MS = 24 * 60 * 60 * 1000
 /** Beyond this many remembered accounts the least recently seen are dropped, so made-up e-mails cannot fill the memory. */
 const MAX_ACCOUNTS = 50_000
 /** Addresses remembered per account (an attack spread wider only loses its oldest records). */

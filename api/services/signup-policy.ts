@@ -13,7 +13,7 @@ export function assertPasswordSignin(context: AppContext): void {
   throw new HttpError(403, 'password_signin_off', `password sign-in is switched off here; sign in with ${name}`)
 }
 
-export function emailDomain(email: string): string {
+function emailDomain(email: string): string {
   return email.slice(email.lastIndexOf('@') + 1).toLowerCase()
 }
 

@@ -12,7 +12,7 @@ import type { SampledCurve } from './types'
 import { extentOf, interpolateAt } from './interpolate'
 
 /** Fewer overlapping points than this give no fit: one stray sample would set the answer. */
-export const MIN_FIT_POINTS = 3
+const MIN_FIT_POINTS = 3
 
 export interface ModulusFit {
   /** Fitted effective modulus, MPa. */

@@ -1,9 +1,9 @@
 /** Files for CAD, slicers and documents, each written from the one built solid. */
 export { indexedMesh, type IndexedMesh } from './mesh'
-export { profileOf, loopArea, type Profile } from './profile'
-export { serialize3mf, modelXml, CORE_NAMESPACE, FLEXSHELF_NAMESPACE, type PartMetadata } from './threemf'
+export { profileOf, type Profile } from './profile'
+export { serialize3mf, type PartMetadata } from './threemf'
 export { serializeDxf } from './dxf'
-export { serializeProfileSvg, type ProfileSvgOptions } from './svg'
+export { serializeProfileSvg } from './svg'
 
 export { PART_FORMATS, type PartFormat } from './formats'
 export { buildPartFile } from './build'

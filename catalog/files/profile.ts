@@ -6,7 +6,7 @@
  */
 import { indexedMesh } from './mesh'
 
-export type Point = [number, number]
+type Point = [number, number]
 
 export interface Profile {
   /** Closed loops in mm; the outer boundaries counter-clockwise, holes clockwise. */
@@ -18,7 +18,7 @@ export interface Profile {
 }
 
 /** Signed area of a closed loop (shoelace formula), positive counter-clockwise. */
-export function loopArea(loop: readonly Point[]): number {
+function loopArea(loop: readonly Point[]): number {
   let sum = 0
   for (let i = 0; i < loop.length; i++) {
     const [x0, y0] = loop[i]

@@ -11,9 +11,9 @@
 import { strToU8, zipSync } from 'fflate'
 import { indexedMesh } from './mesh'
 
-export const CORE_NAMESPACE = 'http://schemas.microsoft.com/3dmanufacturing/core/2015/02'
+const CORE_NAMESPACE = 'http://schemas.microsoft.com/3dmanufacturing/core/2015/02'
 /** Namespace of Flexshelf's own metadata names (the core allows only namespaced custom names). */
-export const FLEXSHELF_NAMESPACE = 'urn:flexshelf:3mf:metadata:1'
+const FLEXSHELF_NAMESPACE = 'urn:flexshelf:3mf:metadata:1'
 const MODEL_TYPE = 'http://schemas.microsoft.com/3dmanufacturing/2013/01/3dmodel'
 /** Zip entries carry this time, so the bytes depend on the part alone. */
 const FIXED_TIME = new Date('2020-01-01T00:00:00Z')
@@ -39,7 +39,7 @@ export function parameterText(params: Record<string, number | string>): string {
   return Object.entries(params).filter(([k]) => k !== 'material').map(([k, v]) => `${k}=${v}`).join('; ')
 }
 
-export function modelXml(solid: unknown, meta: PartMetadata): string {
+function modelXml(solid: unknown, meta: PartMetadata): string {
   const { vertices, triangles } = indexedMesh(solid)
   const metadata: [string, string][] = [
     ['Title', meta.name],

@@ -108,7 +108,7 @@ export function signedVolume(triangles: readonly StlTriangle[]): number {
 }
 
 /** Total triangle area (mm²). */
-export function surfaceArea(triangles: readonly StlTriangle[]): number {
+function surfaceArea(triangles: readonly StlTriangle[]): number {
   let sum = 0
   for (const { vertices: [a, b, c] } of triangles) {
     const u = [b[0] - a[0], b[1] - a[1], b[2] - a[2]]

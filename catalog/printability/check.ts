@@ -11,7 +11,7 @@ import {
   LAYER_TOLERANCE, MAX_LAYER_PER_NOZZLE, PERIMETER_TOLERANCE, nearestPrintableHeight, nearestPrintableWall, perimetersOf, printerRules, type PrinterRules,
 } from './profile'
 
-export type CheckLevel = 'ok' | 'warn' | 'fail'
+type CheckLevel = 'ok' | 'warn' | 'fail'
 
 export interface ParamFix {
   key: string
@@ -36,7 +36,7 @@ export interface PrintabilityReport {
 /** Parameters that set the print height: the out-of-plane size of every family (bending plane = build plane). */
 export const PRINT_HEIGHT_KEYS = ['depth', 'width'] as const
 
-export const PRINTING_NOTES: readonly string[] = Object.freeze([
+const PRINTING_NOTES: readonly string[] = Object.freeze([
   'Orientation: lay the part flat so the bending plane is the build plane and the flexures are drawn by perimeters; bending across layers peels them apart (common practice).',
   'Infill: print flexures and hooks at 100 % infill (solid); sparse infill makes stiffness and strength unpredictable (common practice).',
   'Fillet flexure roots where the model allows it: a sharp root concentrates strain and is where printed flexures crack first (common practice).',

@@ -14,9 +14,9 @@ export const DEFAULT_PRINTER: Readonly<PrinterProfile> = Object.freeze({ nozzle:
  * the rule of thumb "walls in multiples of the nozzle" (common practice). We use 1.0; a profile
  * may give its own lineWidth.
  */
-export const LINE_WIDTH_PER_NOZZLE = 1.0
+const LINE_WIDTH_PER_NOZZLE = 1.0
 /** Thinnest flexure wall, in perimeters (docs/references.md §8: at least two extrusion widths). */
-export const MIN_PERIMETERS = 2
+const MIN_PERIMETERS = 2
 /** A wall within 5 % of a line width of a whole number of perimeters counts as whole (our choice). */
 export const PERIMETER_TOLERANCE = 0.05
 /** A print height within 2 % of a layer of a whole number of layers counts as whole (our choice). */

@@ -4,7 +4,7 @@ import { ELEMENT_STRIDE } from './corotational-beam'
 import { reverseCuthillMcKee } from './ordering'
 import type { Dof, Frame } from './types'
 
-export const FIXED = -1
+const FIXED = -1
 /** Equation marker of the driven degree of freedom under displacement control. */
 export const CONTROL = -2
 
@@ -44,7 +44,7 @@ export interface FrameModel {
   elementEquation: Int32Array
 }
 
-export const SCATTER_NONE = -1
+const SCATTER_NONE = -1
 export const SCATTER_KCC = -2
 export const SCATTER_GENERAL = -3
 /** K_fc entries are encoded as SCATTER_KFC − q. */

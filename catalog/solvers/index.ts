@@ -1,8 +1,8 @@
 export * from './types'
 export { followPath } from './follow-path'
 export { rectangleSection } from './section'
-export { meshCurve, meshPolyline, meshStraight, type MeshPart } from './mesh'
-export { createBandMatrix, bandAdd, bandFactor, bandSolve, type BandMatrix } from './band'
-export { reverseCuthillMcKee } from './ordering'
+export { meshCurve, meshPolyline, meshStraight } from './mesh'
+export { createBandMatrix, bandAdd, bandFactor, bandSolve } from './band'
+
 export { SOLVER_VERSION } from './version'
-export { firstCrossing, sampleAt, indicesUpTo, strainLimitedStop, type StrainLimitedStop } from './path-sampling'
+export { firstCrossing, sampleAt, indicesUpTo, strainLimitedStop } from './path-sampling'

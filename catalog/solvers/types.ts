@@ -55,7 +55,7 @@ export interface PathRequest {
 }
 
 /** A local extremum of the reaction along the path, located to the solver's tolerance. */
-export interface PathExtremum {
+interface PathExtremum {
   kind: 'max' | 'min'
   control: number
   reaction: number

@@ -4,10 +4,10 @@ import { assemble, updateSlaves, type AssemblyState } from './assemble'
 import { createTangent, type FrameModel } from './frame-model'
 import type { PathRequest, PathResult } from './types'
 
-export const DEFAULT_TOLERANCE = 1e-6
+const DEFAULT_TOLERANCE = 1e-6
 /** Floor of the residual scale (fraction of the frame's force scale) while reactions are still ~0. */
 const SCALE_FLOOR = 1e-6
-export const DEFAULT_MAX_ITERATIONS = 25
+const DEFAULT_MAX_ITERATIONS = 25
 export const DEFAULT_POINTS = 101
 
 /** Preallocated arrays for one path: nothing is allocated per Newton iteration. */

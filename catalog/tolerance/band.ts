@@ -19,7 +19,7 @@ export interface ToleranceOptions extends EvaluateOptions {
   tolerance?: Partial<ManufacturingTolerance>
 }
 
-export interface CornerEvaluation {
+interface CornerEvaluation {
   /** −1 / 0 / +1: walls thinner, as given, thicker. */
   thickness: -1 | 0 | 1
   /** −1 / 0 / +1: modulus lower, as given, higher. */
@@ -41,7 +41,7 @@ export interface ToleranceBand {
   complete: boolean
 }
 
-export function metricBand(evaluations: Array<Record<string, MetricValue>>): MetricBand {
+function metricBand(evaluations: Array<Record<string, MetricValue>>): MetricBand {
   const band: MetricBand = {}
   for (const key of Object.keys(evaluations[0] ?? {})) {
     const values = evaluations.map((m) => m[key])

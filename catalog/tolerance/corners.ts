@@ -20,7 +20,7 @@ export interface ToleranceCorner {
   modulusValue: number
 }
 
-export function wallKeys(family: FamilyDefinition): string[] {
+function wallKeys(family: FamilyDefinition): string[] {
   return family.params.filter((p) => p.role === 'wall').map((p) => p.key)
 }
 

@@ -1,7 +1,6 @@
-export { toleranceBand, metricBand } from './band'
-export type { ToleranceBand, ToleranceOptions, CornerEvaluation } from './band'
-export { toleranceCorners, wallKeys, MODULUS_RANGE } from './corners'
-export type { ToleranceCorner } from './corners'
+export { toleranceBand } from './band'
+export type { ToleranceBand } from './band'
+
 export { curveBand, valuesAt } from './curve-band'
-export type { CurveBand } from './curve-band'
+
 export { DEFAULT_TOLERANCE, DEFAULT_TOLERANCE_NOTE, resolveTolerance } from './defaults'

@@ -7,7 +7,7 @@ import { boundScale, MARGIN_LIMIT, sideMargin } from './rule'
 import { quantitiesOf } from './quantities'
 import type { ForceWindow, WindowRange } from './schema'
 
-export interface CompiledBound {
+interface CompiledBound {
   /** `peakForce.min`. */
   id: string
   metric: string
@@ -44,7 +44,7 @@ export function compileWindow(window: ForceWindow): CompiledWindow {
 }
 
 /** Margin of one bound over [low, high] (metric sign); −Infinity when the value is missing. */
-export function boundMargin(b: CompiledBound, low: MetricValue, high: MetricValue): number {
+function boundMargin(b: CompiledBound, low: MetricValue, high: MetricValue): number {
   if (low === null || high === null || typeof low !== 'number' || typeof high !== 'number') {
     if (b.nullMeans === 'unbounded' && low === null && high === null) return b.side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT
     return -Infinity

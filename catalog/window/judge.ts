@@ -66,14 +66,13 @@ export interface JudgeOptions {
   envelope?: { x: number; y: number }
 }
 
-
-export function verdictOf(margin: number | null): Verdict {
+function verdictOf(margin: number | null): Verdict {
   if (margin === null || margin < 0) return 'outside'
   return margin <= EDGE_FRACTION ? 'edge' : 'inside'
 }
 
 const VERDICT_ORDER: Record<Verdict, number> = { outside: 0, edge: 1, inside: 2 }
-export function worstVerdict(verdicts: Verdict[]): Verdict {
+function worstVerdict(verdicts: Verdict[]): Verdict {
   return verdicts.reduce<Verdict>((w, v) => (VERDICT_ORDER[v] < VERDICT_ORDER[w] ? v : w), 'inside')
 }
 
@@ -138,7 +137,6 @@ function footprintChecks(window: ForceWindow, envelope: { x: number; y: number }
   const turned = orient(envelope.y, envelope.x)
   return worst(turned) > worst(straight) ? turned : straight
 }
-
 
 /** Strain against the material's limit from nominal metrics or (band = true) a tolerance band. */
 export function judgeStrain(input: Metrics | MetricBand, band: boolean): StrainCheck | null {

@@ -40,7 +40,7 @@ export function strainBasis(metricKeys: Iterable<string>): StrainBasis {
 }
 
 /** Rounding allowance on a working range's factor of 1 (interpolated at the limit). */
-export const RANGE_LIMIT_SLACK = 1e-6
+const RANGE_LIMIT_SLACK = 1e-6
 
 /** Whether a (worst-case) strain safety factor passes: ≥ 1, with the rounding slack for a working range. */
 export function strainHolds(safetyFactor: number, basis: StrainBasis | Iterable<string>): boolean {

@@ -12,7 +12,7 @@ import { builtinMaterials } from '../materials'
 import { FOOTPRINT_BOUNDS, PRINTER_BOUNDS, TOLERANCE_BOUNDS } from './bounds'
 import { windowKinds, windowQuantities, type WindowKind } from './quantities'
 
-export { FOOTPRINT_BOUNDS, PRINTER_BOUNDS, TOLERANCE_BOUNDS } from './bounds'
+export { PRINTER_BOUNDS, TOLERANCE_BOUNDS } from './bounds'
 
 export interface WindowRange {
   min?: number
@@ -53,7 +53,7 @@ export interface ForceWindow {
 
 /** Results returned when the window gives no `limit`. */
 export const DEFAULT_LIMIT = 20
-export const MAX_LIMIT = 200
+const MAX_LIMIT = 200
 
 const finite = (field: string, unit: string) =>
   z.number({ error: `${field} must be a number${unit ? ` in ${unit}` : ''}` })
@@ -86,7 +86,7 @@ const footprintSchema = z.strictObject(
 ).optional()
 
 /** A printer profile: nozzle and layer in their bounds, the layer not above the nozzle. */
-export const printerSchema = z.strictObject(
+const printerSchema = z.strictObject(
   { nozzle: within('printer.nozzle', 'mm', PRINTER_BOUNDS.nozzle).optional(), layer: within('printer.layer', 'mm', PRINTER_BOUNDS.layer).optional() },
   { error: (iss) => (iss.code === 'unrecognized_keys' ? undefined : 'printer must be an object like {"nozzle": 0.4, "layer": 0.2} in mm') },
 ).superRefine((p, ctx) => {
@@ -96,7 +96,7 @@ export const printerSchema = z.strictObject(
   }
 }).optional()
 
-export const toleranceSchema = z.strictObject(
+const toleranceSchema = z.strictObject(
   {
     thickness: within('tolerance.thickness', 'mm', TOLERANCE_BOUNDS.thickness).optional(),
     modulus: within('tolerance.modulus', '', TOLERANCE_BOUNDS.modulus, ' (a fraction: 0.1 = ±10 %)').optional(),

@@ -5,7 +5,7 @@
  */
 import S3rver from 's3rver'
 
-export const FAKE_S3_CREDENTIALS = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' }
+const FAKE_S3_CREDENTIALS = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' }
 
 export interface FakeS3 {
   endpoint: string

@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { freePort } from './free-port'
 
-export const POSTGRES_BIN = process.env.FLEXSHELF_PG_BIN || '/usr/lib/postgresql/15/bin'
+const POSTGRES_BIN = process.env.FLEXSHELF_PG_BIN || '/usr/lib/postgresql/15/bin'
 
 export interface PostgresCluster {
   port: number
@@ -21,7 +21,6 @@ export interface PostgresCluster {
   urlOf(database: string): string
   stop(): void
 }
-
 
 function postgresIds(): { uid: number; gid: number } {
   const uid = Number(execFileSync('id', ['-u', 'postgres'], { encoding: 'utf8' }).trim())

@@ -16,14 +16,14 @@ import { DEMO_PASSWORD, DEMO_USERS } from '../../api/db/demo-shelf'
 import { seedDemoData, type SeedReport } from '../../api/db/seed'
 import type { Role } from '../../api/roles'
 
-export const TEST_BCRYPT_COST = 4
+const TEST_BCRYPT_COST = 4
 
 /**
  * Every JSON answer of a test app is held to the wire contract (contract/): a body outside it
  * is refused with a 500 naming the route and the fields, so every API test parses every
  * route's response it receives. The violations are kept for the test that wants to see them.
  */
-export const contractViolations: ContractViolation[] = []
+const contractViolations: ContractViolation[] = []
 function checkAgainstContract(route: string, status: number, body: unknown) {
   try {
     checkResponse(route, status, body)

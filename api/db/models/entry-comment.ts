@@ -6,7 +6,7 @@ import type { Entry } from './entry'
 import type { User } from './user'
 
 /** A plain comment, or the message that came with a review decision. */
-export const COMMENT_KINDS = ['comment', 'changes_requested', 'rejected'] as const
+const COMMENT_KINDS = ['comment', 'changes_requested', 'rejected'] as const
 export type CommentKind = (typeof COMMENT_KINDS)[number]
 
 /** A remark on an entry or proposal during review; never edited. */

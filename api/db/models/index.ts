@@ -11,13 +11,11 @@ import { SavedConfiguration } from './saved-configuration'
 import { TestReport } from './test-report'
 import { User } from './user'
 
-export { AuditEvent, Entry, EntryRevision, Material, RevokedToken, SavedConfiguration, TestReport, User }
-export { EntryComment, OutboxMessage, PasswordResetToken }
-export { COMMENT_KINDS, type CommentKind } from './entry-comment'
-export { OUTBOX_STATUSES, type OutboxStatus } from './outbox-message'
-export { ENTRY_STATUSES, type EntryStatus, type ParamRanges, type ParamValues } from './types'
+export { AuditEvent, Entry, EntryRevision, Material, SavedConfiguration, TestReport, User }
+export { OutboxMessage }
+
+export { type EntryStatus, type ParamRanges, type ParamValues } from './types'
 export { ImmutableRevisionError } from './entry-revision'
-export { REPORT_STATUSES, type ReportStatus } from './test-report'
 
 /**
  * Binds the models to one database. Each database gets its own subclasses, so two

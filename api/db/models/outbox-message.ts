@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize'
 
-export const OUTBOX_STATUSES = ['sent', 'failed'] as const
+const OUTBOX_STATUSES = ['sent', 'failed'] as const
 export type OutboxStatus = (typeof OUTBOX_STATUSES)[number]
 
 /** Every notification e-mail, as handed to the transport, and whether the transport took it. */

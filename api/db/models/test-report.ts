@@ -5,7 +5,7 @@ import {
 import type { EntryId, RevisionId } from './types'
 import type { User } from './user'
 
-export const REPORT_STATUSES = ['submitted', 'accepted', 'rejected'] as const
+const REPORT_STATUSES = ['submitted', 'accepted', 'rejected'] as const
 export type ReportStatus = (typeof REPORT_STATUSES)[number]
 
 export interface MeasuredCurve {

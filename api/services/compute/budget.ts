@@ -38,6 +38,6 @@ export class ComputeBusyError extends HttpError {
   }
 }
 
-export function formatMs(ms: number): string {
+function formatMs(ms: number): string {
   return ms >= 1000 ? `${Number((ms / 1000).toFixed(1))} s` : `${ms} ms`
 }

@@ -12,7 +12,7 @@
  */
 export { createDraft, createProposal, updateDraft } from './drafts'
 export { addComment } from './comments'
-export { changeStatus, evaluateDefaults } from './workflow'
-export { compareRevisions, entryDiff, sideBySide } from './revision-diff'
-export { parseQueryId } from './ids'
+export { changeStatus } from './workflow'
+export { compareRevisions, entryDiff } from './revision-diff'
+
 export { reviewQueueEntries } from './review-queue'

@@ -27,7 +27,7 @@ function metricSpecs(familyId: string) {
 }
 
 /** Side-by-side rows of two snapshots: params, ranges and metrics, each with `changed`. */
-export function sideBySide(familyId: string, left: { params: Record<string, unknown>; ranges: Record<string, unknown>; metrics: Record<string, unknown> }, right: typeof left) {
+function sideBySide(familyId: string, left: { params: Record<string, unknown>; ranges: Record<string, unknown>; metrics: Record<string, unknown> }, right: typeof left) {
   const family = families.find((f) => f.id === familyId)
   const spec = (key: string) => family?.params.find((p) => p.key === key)
   const params = paramKeys(familyId, left.params, right.params).filter((k) => k in left.params || k in right.params).map((key) => ({

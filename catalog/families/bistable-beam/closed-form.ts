@@ -14,7 +14,7 @@ export function modeOneForce(q: number, d: number): number {
 }
 
 /** Mode-3 line: f3 = 8π⁴ − 6π⁴Δ (N1 = 2π, N3 = 4π). */
-export function modeThreeForce(d: number): number {
+function modeThreeForce(d: number): number {
   return 8 * PI4 - 6 * PI4 * d
 }
 
@@ -31,7 +31,7 @@ function modeThreeWork(d: number): number {
 export const CRITICAL_Q = Math.sqrt(16 / 3)
 
 /** Where the path runs along the mode-3 line, or null when Q is below the critical ratio. */
-export function modeThreeRange(q: number): [number, number] | null {
+function modeThreeRange(q: number): [number, number] | null {
   const disc = 1 - 16 / (3 * q * q)
   if (disc < 0) return null
   const s = Math.sqrt(disc)
@@ -45,7 +45,7 @@ export function closedFormForce(q: number, d: number): number {
 }
 
 /** ∫₀^Δ f dΔ along the path. */
-export function closedFormWork(q: number, d: number): number {
+function closedFormWork(q: number, d: number): number {
   const range = modeThreeRange(q)
   if (!range || d <= range[0]) return modeOneWork(q, d)
   const [a, b] = range

@@ -31,14 +31,6 @@ export function bistableTableError(): Readonly<Record<string, ErrorQuantiles>> {
   return bistableTable().validation.bistable
 }
 
-/**
- * The bistable flag may be wrong only when |valleyForce| is below this fraction of the peak
- * force (the thin band around the bistability limit, measured on the same sample).
- */
-export function bistableFlagBand(): number {
-  return bistableTable().validation.flagBand
-}
-
 export interface BistableEstimateParams {
   span: number
   apexHeight: number

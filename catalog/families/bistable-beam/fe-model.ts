@@ -54,7 +54,7 @@ export interface FeCurve {
 }
 
 /** Elements along a side post for a half beam of `elements` elements (same density, at least 1 per 8). */
-export function postElements(g: BistableGeometry, elements: number): number {
+function postElements(g: BistableGeometry, elements: number): number {
   if (g.postLength <= 0) return 0
   const perEight = Math.min(8, Math.max(1, Math.ceil((8 * g.postLength) / (g.span / 2))))
   return Math.max(1, Math.round((perEight * elements) / 8))

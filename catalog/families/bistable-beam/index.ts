@@ -5,8 +5,7 @@ import * as params from './params'
 import { estimator } from './search'
 import { estimateAllowance } from './tolerance'
 
-export { estimateBistable, type BistableEstimateParams } from './estimate'
-export { closedFormMetrics, closedFormForce, CRITICAL_Q } from './closed-form'
+export { estimateBistable } from './estimate'
 
 export const bistableBeam = defineFamily({
   id: 'bistable-beam',

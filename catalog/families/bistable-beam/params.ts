@@ -32,7 +32,7 @@ export const MAX_RISE = 0.2
 export const MIN_SLENDERNESS = 20
 export const MAX_POST = 0.5
 /** Shorter posts are below one printed layer or line (common practice): they cannot be made, and the beam mesh would degenerate. */
-export const MIN_POST = 0.1
+const MIN_POST = 0.1
 
 const fmt = (v: number) => String(Number(v.toPrecision(4)))
 

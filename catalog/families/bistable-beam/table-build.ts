@@ -115,7 +115,7 @@ const range = (key: string) => params.find((p) => p.key === key)!
  * (params.ts) in dimensionless form. With span l, apexHeight h = ηl, thickness t = h/Q and
  * postLength pl, a span must exist inside every bound at once.
  */
-export function groupsFeasible(q: number, eta: number, w: number): boolean {
+function groupsFeasible(q: number, eta: number, w: number): boolean {
   const eps = 1e-9
   if (q < MIN_RATIO - eps || q > MAX_RATIO + eps || eta > MAX_RISE + eps || w < 0) return false
   const slenderness = q / eta
@@ -130,7 +130,7 @@ export function groupsFeasible(q: number, eta: number, w: number): boolean {
 }
 
 /** The geometry of a table node, for a reference span of 100 mm and E = 1000 MPa. */
-export function nodeGeometry(q: number, eta: number, w: number): BistableGeometry {
+function nodeGeometry(q: number, eta: number, w: number): BistableGeometry {
   const span = 100
   const apexHeight = eta * span
   const thickness = apexHeight / q

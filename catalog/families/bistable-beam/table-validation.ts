@@ -93,7 +93,7 @@ export function caseErrors(table: BistableTable, cases: BistableCase[]): { rows:
   return { rows, outside, failed }
 }
 
-export function quantiles(values: number[]): ErrorQuantiles {
+function quantiles(values: number[]): ErrorQuantiles {
   const s = [...values].sort((a, b) => a - b)
   const at = (f: number) => (s.length ? s[Math.min(s.length - 1, Math.floor(f * s.length))] : NaN)
   return { median: at(0.5), p90: at(0.9), p99: at(0.99), max: s.length ? s[s.length - 1] : NaN }

@@ -16,11 +16,11 @@ import { bistableTable, type BistableTable } from './table-store'
  * bistable" threshold (common practice), above the largest flip the validation has measured
  * (its flagBand).
  */
-export const UNCERTAIN_VALLEY = 0.15
+const UNCERTAIN_VALLEY = 0.15
 /** Energy barrier below this fraction of the work to snap: the barrier's own error is large. */
-export const UNCERTAIN_BARRIER = 0.15
+const UNCERTAIN_BARRIER = 0.15
 /** Second stable position beyond this many apex heights: within 1.5 % of the travel of its end (2), where the table may put it on the other side. */
-export const UNCERTAIN_SECOND = 1.97
+const UNCERTAIN_SECOND = 1.97
 
 const slot = Object.fromEntries(TABLE_METRICS.map((k, i) => [k, i])) as Record<(typeof TABLE_METRICS)[number], number>
 const scratch = new Float64Array(TABLE_METRICS.length)

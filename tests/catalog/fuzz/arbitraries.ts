@@ -13,7 +13,7 @@ import fc from 'fast-check'
 import { expect } from 'vitest'
 import { builtinMaterials, evaluate, SolverError, ValidationError, type FamilyDefinition } from '../../../catalog/index'
 
-export type Params = Record<string, unknown>
+type Params = Record<string, unknown>
 
 export type ParamCase =
   | { tag: 'valid'; params: Params }
@@ -31,7 +31,7 @@ export const notANumber: fc.Arbitrary<unknown> = fc.oneof(
 )
 
 /** A number strictly outside [min, max]: near the edge, far off, or at the extremes of a double. */
-export function outside(min: number, max: number): fc.Arbitrary<number> {
+function outside(min: number, max: number): fc.Arbitrary<number> {
   const span = max - min
   return fc.oneof(
     fc.double({ min: max + span * 1e-6 + 1e-9, max: max + 10 * span + 1, noNaN: true }),
@@ -41,7 +41,7 @@ export function outside(min: number, max: number): fc.Arbitrary<number> {
 }
 
 /** Keys no family knows; some of them are object-prototype names that naive code trips on. */
-export function unknownKey(family: FamilyDefinition): fc.Arbitrary<string> {
+function unknownKey(family: FamilyDefinition): fc.Arbitrary<string> {
   const known = new Set([...family.params.map((s) => s.key), 'material', 'modulus', 'strainLimit'])
   return fc.oneof(
     fc.constantFrom('__proto__', 'constructor', 'toString', 'hasOwnProperty', 'valueOf', 'spanMm', 'Span', 'speed'),
@@ -50,7 +50,7 @@ export function unknownKey(family: FamilyDefinition): fc.Arbitrary<string> {
 }
 
 /** One in-range value per parameter (integers where the schema asks for them); each key present or left to its default. */
-export function inRangeParams(family: FamilyDefinition, options: { material?: boolean } = {}): fc.Arbitrary<Params> {
+function inRangeParams(family: FamilyDefinition, options: { material?: boolean } = {}): fc.Arbitrary<Params> {
   const fields: Record<string, fc.Arbitrary<unknown>> = {}
   for (const s of family.params) {
     const value = s.integer
@@ -131,7 +131,7 @@ export function paramCases(family: FamilyDefinition, options: CaseOptions = {}):
 }
 
 /** Every number in an evaluation's curve and metrics is finite (metrics may be booleans or null). */
-export function expectAllFinite(observed: { curve: { displacement: number[]; force: number[]; strain?: number[] }; metrics: Record<string, unknown> }): void {
+function expectAllFinite(observed: { curve: { displacement: number[]; force: number[]; strain?: number[] }; metrics: Record<string, unknown> }): void {
   const { displacement, force, strain } = observed.curve
   expect(displacement.length).toBeGreaterThan(1)
   expect(force.length).toBe(displacement.length)

@@ -26,7 +26,7 @@ export interface AnalyticArea {
 
 const circle = (d: number) => Math.PI * (d / 2) ** 2
 /** Area an n-gon inscribed in a circle of diameter d misses. */
-export const polygonDeficit = (d: number, n: number) => circle(d) - (n / 2) * (d / 2) ** 2 * Math.sin((2 * Math.PI) / n)
+const polygonDeficit = (d: number, n: number) => circle(d) - (n / 2) * (d / 2) ** 2 * Math.sin((2 * Math.PI) / n)
 
 /** ∫ₐᵇ √(1 + w0′²) dx of the cosine centreline, composite Simpson with 4000 intervals. */
 export function cosineArcLength(span: number, apexHeight: number, a: number, b: number): number {
@@ -50,7 +50,7 @@ export function shoelace(points: [number, number][]): number {
   return s / 2
 }
 
-export function bistableBeamArea(p: Params): AnalyticArea {
+function bistableBeamArea(p: Params): AnalyticArea {
   const { span, apexHeight: h, thickness: t, postLength: post } = p
   const L = bistable.layout(p)
   const W = bistable.FRAME_WALL
@@ -82,20 +82,20 @@ export function bistableBeamArea(p: Params): AnalyticArea {
   return { area, facetBound }
 }
 
-export function leafHingeArea(p: Params): AnalyticArea {
+function leafHingeArea(p: Params): AnalyticArea {
   const { fixedLength, hole } = leaf.layout(p)
   const area = (fixedLength + p.linkLength) * leaf.LINK_HEIGHT + p.thickness * p.length - circle(hole.diameter)
   return { area, facetBound: polygonDeficit(hole.diameter, HOLE_SEGMENTS) }
 }
 
 /** Area of a circle of radius R lying below a chord at signed height δ above its centre. */
-export function circleBelowChord(R: number, delta: number): number {
+function circleBelowChord(R: number, delta: number): number {
   if (delta <= -R) return 0
   if (delta >= R) return Math.PI * R * R
   return R * R * Math.acos(-delta / R) + delta * Math.sqrt(R * R - delta * delta)
 }
 
-export function notchHingeArea(p: Params): AnalyticArea {
+function notchHingeArea(p: Params): AnalyticArea {
   const { radius: R, neckThickness: t, blockThickness: h } = p
   const L = notch.layout(p)
   // signed distance from a cut-out centre (at R + t/2) to the block surface (at h/2)
@@ -110,7 +110,7 @@ export function notchHingeArea(p: Params): AnalyticArea {
   return { area, facetBound }
 }
 
-export function parallelGuideArea(p: Params): AnalyticArea {
+function parallelGuideArea(p: Params): AnalyticArea {
   const L = guide.layout(p)
   let area = (guide.BASE_LENGTH + guide.STAGE_LENGTH) * (p.spacing + 2 * guide.GUIDE_MARGIN) + 2 * p.thickness * p.length
   let facetBound = 0
@@ -121,7 +121,7 @@ export function parallelGuideArea(p: Params): AnalyticArea {
   return { area, facetBound }
 }
 
-export function serpentineSpringArea(p: Params): AnalyticArea {
+function serpentineSpringArea(p: Params): AnalyticArea {
   const { spans: n, spanLength: b, pitch: a, thickness: t } = p
   const L = serpentine.layout(p)
   // spans include their square outer corners; connectors show a − t between spans; each pad
@@ -135,7 +135,7 @@ export function serpentineSpringArea(p: Params): AnalyticArea {
   return { area, facetBound }
 }
 
-export function snapHookArea(p: Params): AnalyticArea {
+function snapHookArea(p: Params): AnalyticArea {
   const { length: l, rootThickness: h0, tipThickness: h1 } = p
   const L = snap.layout(p)
   const base = snap.BASE_LENGTH * (h0 + 2 * snap.BASE_MARGIN)

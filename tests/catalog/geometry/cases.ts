@@ -29,7 +29,7 @@ export const geometryOf: Record<string, GeometryModule> = {
   'snap-hook': snap,
 }
 
-export function familyDefinition(id: string): FamilyDefinition | undefined {
+function familyDefinition(id: string): FamilyDefinition | undefined {
   return families.find((f) => f.id === id)
 }
 

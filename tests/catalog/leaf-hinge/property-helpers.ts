@@ -28,7 +28,7 @@ export function expectFiniteResults(familyId: string, params: Record<string, num
 }
 
 /** An arbitrary (field, out-of-range value) pair over the family's parameters. */
-export function outOfRange(familyId: string): fc.Arbitrary<{ key: string; value: number }> {
+function outOfRange(familyId: string): fc.Arbitrary<{ key: string; value: number }> {
   const specs = getFamily(familyId).params
   return fc.integer({ min: 0, max: specs.length - 1 }).chain((i) => {
     const spec = specs[i]

@@ -7,28 +7,29 @@ import { defineFamily } from '../../../catalog/schema/define'
 import type { FastEstimator } from '../../../catalog/schema/types'
 import * as geometry from './geometry'
 import * as model from './model'
+import { stiffnessOf, strainPerMm, travelOf } from './model'
 import * as params from './params'
 
 const keys = ['stiffness', 'maxTravel', 'maxStrain', 'safetyFactor'] as const
 
 /** The closed form itself, in the raw-slot form search and the design map run. */
-export const estimator: FastEstimator = {
+const estimator: FastEstimator = {
   method: 'linear',
   reproduces: 'linear',
   exact: true,
   layout: { keys, modulusPower: [1, 0, 0, 0], booleans: [false, false, false, false], emptyFixed: [true, true, true, true] },
   fill: (p, E, limit, out) => {
-    const travel = model.travelOf(p, limit)
-    out[0] = model.stiffnessOf(p, E)
+    const travel = travelOf(p, limit)
+    out[0] = stiffnessOf(p, E)
     out[1] = travel
-    out[2] = travel * model.strainPerMm(p)
+    out[2] = travel * strainPerMm(p)
     out[3] = limit / out[2]
     return true
   },
   estimate: (p, E, limit) => {
-    const travel = model.travelOf(p, limit)
-    const strain = travel * model.strainPerMm(p)
-    return { stiffness: model.stiffnessOf(p, E), maxTravel: travel, maxStrain: strain, safetyFactor: limit / strain }
+    const travel = travelOf(p, limit)
+    const strain = travel * strainPerMm(p)
+    return { stiffness: stiffnessOf(p, E), maxTravel: travel, maxStrain: strain, safetyFactor: limit / strain }
   },
 }
 

@@ -8,7 +8,7 @@
 import { peakStrainMetric, strainSafetyMetric } from '../../../catalog/schema/define'
 import type { MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../../catalog/schema/types'
 
-export const TRAVEL_CAP = 0.2
+const TRAVEL_CAP = 0.2
 const POINTS = 21
 
 export const methods: MethodInfo[] = [

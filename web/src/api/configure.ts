@@ -6,15 +6,14 @@
 import type { z } from 'zod'
 import type * as contract from '@contract/api'
 import { ApiError, parseErrorBody, request } from './client'
-import type { ForceWindow, Judgement } from '@catalog/window'
+import type { ForceWindow } from '@catalog/window'
 import type { PrintabilityReport } from '@catalog/printability'
 
-export type { ForceWindow, Judgement, PrintabilityReport }
+export type { PrintabilityReport }
 
 // The answers' shapes come from the wire contract (contract/api.ts), type-only.
 export type ToleranceSetting = z.infer<typeof contract.ToleranceSetting>
 export type PrinterSetting = z.infer<typeof contract.PrinterSetting>
-export type BandView = z.infer<typeof contract.BandView>
 export type CheckResult = z.infer<typeof contract.CheckResult>
 export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
 export type Datasheet = z.infer<typeof contract.Datasheet>

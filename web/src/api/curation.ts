@@ -5,22 +5,15 @@
 import type { z } from 'zod'
 import type * as contract from '@contract/api'
 import { request, requestBlob } from './client'
-import type { CurveComparison } from '@catalog/calibration'
 import type { EntrySummary, Material, MetricValue, ParamRanges } from './types'
 
-export type { CurveComparison }
-
 // The answers' shapes come from the wire contract (contract/api.ts), type-only.
-export type CommentKind = z.infer<typeof contract.CommentKind>
 export type EntryComment = z.infer<typeof contract.EntryComment>
-export type ReportStatus = z.infer<typeof contract.ReportStatus>
-export type ReportComparison = z.infer<typeof contract.ReportComparison>
 export type TestReport = z.infer<typeof contract.TestReport>
 export type TestReportWithEntry = z.infer<typeof contract.TestReportWithEntry>
 export type EntryDetail = z.infer<typeof contract.EntryDetail>
 export type EntryDiff = z.infer<typeof contract.EntryDiff>
 export type RevisionComparison = z.infer<typeof contract.RevisionComparison>
-export type CalibrationGroup = z.infer<typeof contract.CalibrationGroup>
 export type EntryCalibration = z.infer<typeof contract.EntryCalibration>
 export type ReviewQueue = z.infer<typeof contract.ReviewQueue>
 export type OutboxMessage = z.infer<typeof contract.OutboxMessage>

@@ -14,7 +14,6 @@ export type Family = z.infer<typeof contract.Family>
 export type Material = z.infer<typeof contract.Material>
 /** A change proposal that is released becomes `merged` (it lives on as the entry's next revision). */
 export type EntryStatus = z.infer<typeof contract.EntryStatusSchema>
-export type PersonRef = z.infer<typeof contract.PersonRef>
 export type EntrySummary = z.infer<typeof contract.EntrySummary>
 export type Revision = z.infer<typeof contract.Revision>
 

@@ -9,7 +9,7 @@ import type { Configuration, PrinterSetting, SavedConfiguration, ToleranceSettin
 import type { FieldIssue } from '@/api'
 import { evaluationParams, type ParamFormModel } from './paramForm'
 import { windowFromForm, windowToForm, type WindowForm } from './configureWindow'
-import { CUSTOM_PROFILE, profileIdOf, toleranceSetting } from './printSettings'
+import { profileIdOf, toleranceSetting } from './printSettings'
 
 export interface ToleranceForm {
   /** ± mm. */
@@ -41,7 +41,7 @@ export function printerForm(printer: Partial<PrinterSetting> | null | undefined)
   return { profile: profileIdOf(p), nozzle: p.nozzle, layer: p.layer }
 }
 
-export function toleranceForm(t: ToleranceSetting | null | undefined): ToleranceForm {
+function toleranceForm(t: ToleranceSetting | null | undefined): ToleranceForm {
   if (!t) return defaultTolerance()
   return { thickness: t.thickness, modulusPercent: Number((t.modulus * 100).toPrecision(6)) }
 }
@@ -116,8 +116,6 @@ export function buildConfiguration(kind: WindowKind, form: ParamFormModel, setti
     printer: p.nozzle !== null && p.layer !== null ? { nozzle: p.nozzle, layer: p.layer } : null,
   }
 }
-
-export { CUSTOM_PROFILE }
 
 /**
  * The server's issues sorted to where they are shown: parameter fields (and cross-field

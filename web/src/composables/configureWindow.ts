@@ -6,9 +6,9 @@
 import { windowQuantities, type WindowKind } from '@catalog/window/quantities'
 import type { ForceWindow } from '@catalog/window/schema'
 
-export type WindowSide = 'min' | 'max'
+type WindowSide = 'min' | 'max'
 
-export interface WindowInputField {
+interface WindowInputField {
   /** `peakForce.min`: also the input's id suffix (`#window-peakForce-min`). */
   id: string
   quantity: string
@@ -23,7 +23,7 @@ export interface WindowInputField {
  * force limit and a separation force floor for a hook). The window JSON accepts more; a
  * saved or pasted window keeps its other bounds.
  */
-export const windowSides: Readonly<Record<WindowKind, Readonly<Record<string, readonly WindowSide[]>>>> = {
+const windowSides: Readonly<Record<WindowKind, Readonly<Record<string, readonly WindowSide[]>>>> = {
   bistable: { peakForce: ['min', 'max'], holdingForce: ['min'], travel: ['max'] },
   spring: { stiffness: ['min', 'max'], travel: ['min'] },
   guide: { stiffness: ['min', 'max'], travel: ['min'] },

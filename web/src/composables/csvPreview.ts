@@ -7,11 +7,11 @@
 import Papa from 'papaparse'
 
 /** Exact factors to mm and N, NIST SP 811 (2008) Appendix B.8: 1 in = 25.4 mm; 1 gf = 9.806 65 mN; 1 lbf = 4.448 221 615 260 5 N. */
-export const LENGTH_TO_MM: Record<string, number> = { mm: 1, in: 25.4, deg: 1 }
-export const FORCE_TO_N: Record<string, number> = { N: 1, gf: 0.00980665, lbf: 4.4482216152605, 'N·mm': 1 }
+const LENGTH_TO_MM: Record<string, number> = { mm: 1, in: 25.4, deg: 1 }
+const FORCE_TO_N: Record<string, number> = { N: 1, gf: 0.00980665, lbf: 4.4482216152605, 'N·mm': 1 }
 
 export const PREVIEW_ROWS = 8
-export const MIN_POINTS = 5
+const MIN_POINTS = 5
 
 export interface CsvPreview {
   delimiter: string

@@ -16,7 +16,7 @@ import { formatNumber } from './metrics'
  * - `pending`: a submitted report not reviewed yet (librarians only)
  * - `before` / `after`: the two sides of a comparison (older or current, newer or proposed)
  */
-export type OverlayRole = 'predicted' | 'measured' | 'pending' | 'before' | 'after'
+type OverlayRole = 'predicted' | 'measured' | 'pending' | 'before' | 'after'
 
 export interface OverlayCurve {
   id: string
@@ -68,7 +68,6 @@ export function overlaySeries(curves: readonly OverlayCurve[], palette: Palette)
     }
   })
 }
-
 
 export function overlayChartOption(input: { curves: readonly OverlayCurve[]; axes: OverlayAxes; palette: Palette }): Record<string, unknown> {
   const { axes, palette: p } = input

@@ -9,7 +9,7 @@
 /** Cells along each axis (issue 6: a 60 × 60 grid). */
 export const DESIGN_MAP_SIZE = 60
 
-export interface MapAxis {
+interface MapAxis {
   key: string
   min: number
   max: number

@@ -5,7 +5,7 @@ import { axisName } from './chartAxes'
 import type { DesignMap } from './designMap'
 import { formatNumber } from './metrics'
 
-export interface MapAxisInfo {
+interface MapAxisInfo {
   key: string
   label: string
   unit: string
@@ -43,7 +43,6 @@ export function regionEdges(map: Pick<DesignMap, 'size' | 'meets'>): Array<[numb
   }
   return out
 }
-
 
 export function designMapOption(input: DesignMapChartInput): Record<string, unknown> {
   const { map, metric, x, y, palette: p } = input

@@ -3,12 +3,12 @@
  * (N, N/mm, N·mm/rad, mm, deg), turned into the window JSON the API takes (docs/api.md).
  * Presets are starting points for common parts, in Flexshelf's own words.
  */
-import { windowKinds, windowQuantities, type WindowKind, type WindowQuantity } from '@catalog/window/quantities'
+import { windowKinds, windowQuantities, type WindowKind } from '@catalog/window/quantities'
 
-export type { WindowKind, WindowQuantity }
+export type { WindowKind }
 export { windowKinds, windowQuantities }
 
-export interface RangeInput {
+interface RangeInput {
   min: number | null
   max: number | null
 }
@@ -121,9 +121,4 @@ export function issueField(field: string): string {
   if (field === 'tolerance.modulus') return 'tolerance.modulusPercent'
   if (field.startsWith('materials')) return 'materials'
   return field
-}
-
-/** Does the window ask for anything about the feel (a range on some quantity)? */
-export function hasFeelBounds(form: SearchForm): boolean {
-  return windowQuantities[form.kind].some((q) => given(form.ranges[q.key]?.min) || given(form.ranges[q.key]?.max))
 }

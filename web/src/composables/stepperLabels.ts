@@ -6,7 +6,7 @@
  */
 import type { Directive } from 'vue'
 
-export function labelSteppers(root: HTMLElement, label: string): void {
+function labelSteppers(root: HTMLElement, label: string): void {
   for (const input of root.querySelectorAll('.n-input-number')) {
     const buttons = input.querySelectorAll<HTMLElement>('.n-input__suffix .n-button, .n-input__prefix .n-button')
     // the minus button comes first, then the plus (buttonPlacement 'right' or 'both')

@@ -2,8 +2,8 @@ import { onBeforeUnmount, shallowRef, watch, type Ref } from 'vue'
 import type { DesignMap, DesignMapRequest } from './designMap'
 
 /** performance.mark names: the browser test reads the measure to print how long a map took. */
-export const MAP_MARK = 'design-map-request'
-export const MAP_MEASURE = 'design-map'
+const MAP_MARK = 'design-map-request'
+const MAP_MEASURE = 'design-map'
 
 /**
  * Design maps computed on a web worker, so the page stays responsive. A newer request

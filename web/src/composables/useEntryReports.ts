@@ -7,9 +7,8 @@ import { useReviewStore } from '@/stores/review'
 import { useSessionStore } from '@/stores/session'
 import { reportOverlayCurves } from './curveOverlay'
 
-
 /** Saves a Blob under a name through a temporary link (the file routes need the bearer token, so a plain link cannot). */
-export function saveBlob(blob: Blob, name: string) {
+function saveBlob(blob: Blob, name: string) {
   const url = URL.createObjectURL(blob)
   const a = document.createElement('a')
   a.href = url

@@ -4,7 +4,7 @@ import { fetchFile } from '@/api/configure'
 import { useSessionStore } from '@/stores/session'
 
 /** Hands a blob to the browser as a download under the given name. */
-export function saveBlob(blob: Blob, fileName: string): void {
+function saveBlob(blob: Blob, fileName: string): void {
   const url = URL.createObjectURL(blob)
   const a = document.createElement('a')
   a.href = url

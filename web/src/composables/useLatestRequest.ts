@@ -6,7 +6,7 @@ import { ApiError, isAbort, type FieldIssue, asApiError } from '@/api'
  * `{ issues }` when the input is already known to be wrong (no request; those issues shown),
  * or `{ send }` to ask the server.
  */
-export type RequestPlan<T> = null | { issues: FieldIssue[] } | { send: (signal: AbortSignal) => Promise<T> }
+type RequestPlan<T> = null | { issues: FieldIssue[] } | { send: (signal: AbortSignal) => Promise<T> }
 
 export interface LatestRequestOptions<T> {
   prepare: () => RequestPlan<T>

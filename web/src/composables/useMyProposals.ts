@@ -12,7 +12,7 @@ export interface ProposalRow extends ProposalSummary {
 }
 
 /** The order of the list: what needs the contributor first, then what waits, then the record. */
-export const proposalStatusOrder: EntryStatus[] = ['draft', 'in_review', 'rejected', 'released', 'retired', 'merged']
+const proposalStatusOrder: EntryStatus[] = ['draft', 'in_review', 'rejected', 'released', 'retired', 'merged']
 
 export function sortProposals<T extends Pick<ProposalSummary, 'status' | 'updatedAt'>>(rows: readonly T[]): T[] {
   return [...rows].sort((a, b) => proposalStatusOrder.indexOf(a.status) - proposalStatusOrder.indexOf(b.status) || b.updatedAt.localeCompare(a.updatedAt))

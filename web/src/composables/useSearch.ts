@@ -3,7 +3,7 @@ import { ApiError, isAbort, searchApi, type SearchAnswer, type SearchProgress, a
 import { emptySearchForm, toWindow, type SearchForm } from './searchWindow'
 
 /** Results asked for per search; the table pages through them. */
-export const RESULT_LIMIT = 60
+const RESULT_LIMIT = 60
 
 export type SearchStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'failed'
 

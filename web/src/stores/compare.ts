@@ -2,7 +2,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref, watch } from 'vue'
 
-export const MAX_COMPARED = 4
+const MAX_COMPARED = 4
 
 export type CompareChoice =
   | { kind: 'result'; entryId: number; params: Record<string, number | string>; label: string }

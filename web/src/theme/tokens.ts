@@ -91,7 +91,7 @@ function channel(c: number): number {
 }
 
 /** Relative luminance of an sRGB hex colour (WCAG 2.x definition). */
-export function relativeLuminance(hex: string): number {
+function relativeLuminance(hex: string): number {
   const m = /^#([0-9a-f]{6})$/i.exec(hex)
   if (!m) throw new Error(`colour must be #rrggbb, got "${hex}"`)
   const n = parseInt(m[1], 16)
