@@ -6,7 +6,7 @@ export { ApiError, asApiError, isAbort, request, setAuthToken, setUnauthenticate
 export type { FieldIssue } from './client'
 export type * from './types'
 export { searchApi } from './search'
-export type { SearchAnswer, SearchJobEvent, SearchJobStart, SearchProgress, SearchResult, SearchTradeoffs, TradeoffPoint } from './search'
+export type { SearchAnswer, SearchProgress, SearchResult, SearchTradeoffs, TradeoffPoint } from './search'
 
 export const authApi = {
   signIn: (email: string, password: string) => request<Session>('POST', '/api/auth/signin', { body: { email, password } }),

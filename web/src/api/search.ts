@@ -5,7 +5,7 @@ import type * as contract from '@contract/api'
 import { request } from './client'
 import { followEventStream } from './eventStream'
 
-export type { SearchProgress, SearchResult, Confirmation, ShelfEntry } from '@catalog/search/types'
+export type { SearchProgress, SearchResult, ShelfEntry } from '@catalog/search/types'
 
 /** The scatter's points of an answer (every kept candidate, capped). */
 export type SearchTradeoffs = z.infer<typeof contract.SearchTradeoffs>

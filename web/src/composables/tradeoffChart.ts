@@ -22,7 +22,7 @@ export function groupOf(p: Pick<TradeoffPoint, 'position'>, firstPage = FIRST_PA
   return p.position <= firstPage ? 'first-page' : 'further'
 }
 
-export const GROUP_NAMES: Record<TradeoffGroup, string> = {
+const GROUP_NAMES: Record<TradeoffGroup, string> = {
   'first-page': 'Listed on the first page',
   further: 'Further results',
   variant: 'Close variants',
@@ -33,7 +33,7 @@ export function xOf(p: TradeoffPoint, axis: TradeoffAxis): number | null {
   return axis === 'safety' ? p.safetyFactor : p.footprint
 }
 
-export function tradeoffTooltip(p: TradeoffPoint, materialName: (id: unknown) => string): string {
+function tradeoffTooltip(p: TradeoffPoint, materialName: (id: unknown) => string): string {
   const where = p.position !== null ? `result ${p.position}` : `close variant of result ${p.variantOf}`
   const safety = p.safetyFactor === null ? 'no strain reported' : formatNumber(p.safetyFactor)
   const footprint = p.footprint === null ? '—' : `${formatNumber(p.footprint, 3)} mm²`
