@@ -56,6 +56,8 @@ export interface Config {
   version: string
   /** Seed the demo users, materials and entries at start-up (never in production). */
   seedDemo: boolean
+  /** With the demo data, also the demo's activity: a proposal in review, test reports, e-mails, saved configurations (FLEXSHELF_DEMO_ACTIVITY). */
+  demoActivity: boolean
   /** Notification e-mail: SMTP only when a URL is set; otherwise the local outbox (docs/api.md, "Notifications"). */
   mail: { smtpUrl: string | null; from: string }
   /** Largest test-report CSV and photo accepted, in bytes. */
@@ -361,6 +363,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     bodyLimit: '256kb',
     version: readVersion(),
     seedDemo: !production,
+    demoActivity: !production && parseChoice(env.FLEXSHELF_DEMO_ACTIVITY, 'FLEXSHELF_DEMO_ACTIVITY', ['on', 'off'] as const, 'on') === 'on',
     mail: {
       smtpUrl: env.FLEXSHELF_SMTP_URL || null,
       from: env.FLEXSHELF_MAIL_FROM || 'Flexshelf <flexshelf@localhost>',

@@ -35,8 +35,8 @@ async function main(): Promise<void> {
   const context = { config, db }
 
   if (config.seedDemo) {
-    const report = await seedDemoData(context)
-    console.log(`Demo data: ${report.usersCreated} users, ${report.materialsCreated} materials, ${report.entriesCreated} entries added`)
+    const report = await seedDemoData(context, { activity: config.demoActivity })
+    console.log(`Demo data: ${report.usersCreated} users, ${report.materialsCreated} materials, ${report.entriesCreated} entries, ${report.activityCreated} activity records added`)
     for (const s of report.skipped) console.warn(`Demo entry "${s.name}" (${s.familyId}) not seeded: ${s.reason}`)
     if (report.familiesPending.length) console.log(`Demo entries waiting for families: ${report.familiesPending.join(', ')}`)
   } else {

@@ -7,6 +7,7 @@ import type { AppContext } from '../../api/context'
 import { openDatabase } from '../../api/db'
 import { DEMO_PASSWORD, DEMO_SHELF, DEMO_USERS } from '../../api/db/demo-shelf'
 import { seedDemoData, type SeedReport } from '../../api/db/seed'
+import { fileStore } from '../../api/services/file-store'
 import { makeTempDir, onPostgres, testConfig } from './helpers'
 
 const SHELF_FAMILIES = ['bistable-beam', 'leaf-hinge', 'notch-hinge', 'parallel-guide', 'serpentine-spring', 'snap-hook']
@@ -209,7 +210,7 @@ describe.runIf(onPostgres)('two instances starting at the same moment on one dat
     const start = async () => {
       const c: AppContext = { config, db: await openDatabase(config.databaseFile) }
       opened.push(c)
-      return { c, report: await seedDemoData(c) }
+      return { c, report: await seedDemoData(c, { activity: true }) }
     }
     const [a, b] = await Promise.all([start(), start()])
     expect(a.report.usersCreated + b.report.usersCreated).toBe(DEMO_USERS.length)
@@ -219,7 +220,93 @@ describe.runIf(onPostgres)('two instances starting at the same moment on one dat
     expect(await Material.count()).toBe(builtinMaterials.length)
     const expectedEntries = registeredOnShelf().reduce((n, id) => n + DEMO_SHELF[id].length, 0)
     expect(a.report.entriesCreated + b.report.entriesCreated).toBe(expectedEntries)
-    expect(await Entry.count()).toBe(expectedEntries)
-    expect(await EntryRevision.count()).toBe(expectedEntries)
+    expect(await Entry.count()).toBe(expectedEntries + 2) // and the two of the demo activity
+    const activityEntries = 2 // demo-activity.ts: the proposal in review and the retired entry
+    expect(await EntryRevision.count()).toBe(expectedEntries + activityEntries)
+    // the demo's activity once too: both reports, each e-mail, both configurations
+    const { TestReport, OutboxMessage, SavedConfiguration } = a.c.db.models
+    expect(await TestReport.count()).toBe(2)
+    expect(await SavedConfiguration.count()).toBe(2)
+    const subjects = (await OutboxMessage.findAll()).map((m) => m.subject)
+    expect(new Set(subjects).size).toBe(subjects.length)
+    expect(a.report.activityCreated + b.report.activityCreated).toBeGreaterThan(0)
+    expect(Math.min(a.report.activityCreated, b.report.activityCreated)).toBe(0)
+  })
+})
+
+describe('the demo activity (a first start of the server)', () => {
+  let dir: string
+  let demo: AppContext
+  let seeded: SeedReport
+  beforeAll(async () => {
+    dir = makeTempDir()
+    const config = testConfig(dir)
+    demo = { config, db: await openDatabase(config.databaseFile) }
+    seeded = await seedDemoData(demo, { activity: true })
+  })
+  afterAll(async () => {
+    await demo.db.close()
+    rmSync(dir, { recursive: true, force: true })
+  })
+
+  it('shows every role\u2019s work: a proposal in review with its thread, a retired entry, reports, e-mails, saved and shared configurations', async () => {
+    const { Entry, EntryComment, OutboxMessage, SavedConfiguration, TestReport } = demo.db.models
+    expect(seeded.skipped).toEqual([])
+    const proposal = (await Entry.findOne({ where: { status: 'in_review' } }))!
+    expect(proposal.name).toMatch(/demo/)
+    expect(await EntryComment.count({ where: { entryId: proposal.id } })).toBeGreaterThanOrEqual(2)
+    expect(await Entry.count({ where: { status: 'retired' } })).toBe(1)
+    const reports = await TestReport.findAll({ order: [['id', 'ASC']] })
+    expect(reports.map((r) => r.status).sort()).toEqual(['accepted', 'submitted'])
+    for (const r of reports) expect(r.notes).toMatch(/Demo data.*Not a measurement: this curve was generated from the model/)
+    const mails = await OutboxMessage.findAll()
+    expect(mails.length).toBeGreaterThanOrEqual(4)
+    for (const m of mails) expect(m.text).toContain('Demo data')
+    expect(mails.map((m) => m.subject)).toEqual(expect.arrayContaining([expect.stringMatching(/waits for review/), expect.stringMatching(/was accepted/)]))
+    const configurations = await SavedConfiguration.findAll()
+    expect(configurations.length).toBe(2)
+    expect(configurations.filter((c) => c.shareToken).length).toBe(1)
+  })
+
+  it('gives the accepted report a measured curve under the prediction and a fitted modulus near the printed one it was generated with', async () => {
+    const { EntryRevision, Material, TestReport } = demo.db.models
+    const accepted = (await TestReport.findOne({ where: { status: 'accepted' } }))!
+    const revision = (await EntryRevision.findByPk(accepted.revisionId!))!
+    const petg = (await Material.findByPk('petg'))!
+    // generated at 88 % of the nominal modulus with 1.5 % noise (demo-activity.ts): force ∝ E for a
+    // linear elastic beam (Timoshenko & Gere, Theory of Elastic Stability: every stiffness term carries E),
+    // so a least-squares fit over the curve must find about 0.88 × E; the noise averages out over 121 points
+    const fit = (accepted.comparison as { modulusFit: { modulus: number } }).modulusFit
+    expect(fit.modulus / petg.modulus).toBeGreaterThan(0.85)
+    expect(fit.modulus / petg.modulus).toBeLessThan(0.91)
+    // the measured peak, read independently of the comparison code, lies under the predicted one
+    const measuredPeak = Math.max(...accepted.measuredCurve.force.slice(0, 60))
+    const predictedPeak = revision.metrics.peakForce as number
+    expect(measuredPeak / predictedPeak).toBeGreaterThan(0.8)
+    expect(measuredPeak / predictedPeak).toBeLessThan(0.97)
+    // its file reads back as the same curve
+    const csv = (await fileStore(demo.config).read(accepted.filePath))!.toString('utf8').trim().split('\n')
+    expect(csv[0]).toBe('displacement_mm,force_N')
+    expect(csv.length - 1).toBe(accepted.measuredCurve.displacement.length)
+    expect(csv[1].split(',').map(Number)).toEqual([accepted.measuredCurve.displacement[0], accepted.measuredCurve.force[0]])
+  })
+
+  it('lists the proposal in the review queue and the waiting report beside it', async () => {
+    const app = createApp(demo)
+    const librarian = (await request(app).post('/api/auth/signin').send({ email: 'librarian@demo.flexshelf.test', password: DEMO_PASSWORD })).body.token
+    const queue = await request(app).get('/api/review-queue').set('Authorization', `Bearer ${librarian}`).expect(200)
+    expect(JSON.stringify(queue.body)).toContain('Softer return spring, status button G2 (demo proposal)')
+    expect(queue.body.reports.map((r: { status: string }) => r.status)).toEqual(['submitted'])
+  })
+
+  it('adds nothing when run again', async () => {
+    const count = async () => {
+      const m = demo.db.models
+      return [await m.Entry.count(), await m.EntryComment.count(), await m.TestReport.count(), await m.OutboxMessage.count(), await m.SavedConfiguration.count()]
+    }
+    const before = await count()
+    const again = await seedDemoData(demo, { activity: true })
+    expect(again).toMatchObject({ entriesCreated: 0, activityCreated: 0 })
+    expect(await count()).toEqual(before)
   })
 })

@@ -23,13 +23,17 @@ export interface StartOptions {
 }
 
 
-/** Starts the real server (built web app + API) on a free loopback port over a fresh data folder. */
+/**
+ * Starts the real server (built web app + API) on a free loopback port over a fresh data folder.
+ * The demo's activity (reports, e-mails, saved configurations) is off unless `env` turns it on,
+ * so tests that count rows start from the demo shelf alone.
+ */
 export async function startServer(env: Record<string, string> = {}, options: StartOptions = {}): Promise<RunningServer> {
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'flexshelf-e2e-'))
   const removeData = !options.dataDir && !options.keepData
   const port = await freePort()
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
-    env: { ...process.env, NODE_ENV: 'development', PORT: String(port), HOST: '127.0.0.1', FLEXSHELF_DATA: dataDir, ...env },
+    env: { ...process.env, NODE_ENV: 'development', PORT: String(port), HOST: '127.0.0.1', FLEXSHELF_DATA: dataDir, FLEXSHELF_DEMO_ACTIVITY: 'off', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   let output = ''
