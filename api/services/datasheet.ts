@@ -10,13 +10,10 @@ import type { ForceWindow } from '../../catalog/window'
 import type { ConfigurationInput } from './configuration-input'
 import { checkTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
+import { GENERAL_CAUTIONS, mergeCautions } from './cautions'
 
-/** Said on every data sheet, whatever the family (DESIGN.md: the usual cautions). */
-export const DATASHEET_CAUTIONS: readonly string[] = Object.freeze([
-  'Predicted forces and positions are estimates from the named method for the nominal geometry: confirm them on printed parts before relying on them.',
-  'Polymers creep under sustained load and fatigue under repeated load: a part held deflected loses force over time, faster when warm, and cracks sooner the higher its strain.',
-  'Where a failure of the part could hurt someone, follow the applicable codes and standards and have the design reviewed by a qualified engineer.',
-])
+/** Said on every data sheet, whatever the family, unless the family's own cautions make the same point (cautions.ts). */
+export const DATASHEET_CAUTIONS: readonly string[] = GENERAL_CAUTIONS
 
 // The answers' shapes are the wire contract's (contract/api.ts).
 export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
@@ -96,8 +93,7 @@ export async function buildDatasheet(target: ConfigureTarget, input: Configurati
     ? `given with the configuration${curated ? `, overriding the curated ${curated.name} (${curated.source})` : ''}`
     : curated?.source ?? 'built-in value'
 
-  const cautions = [...DATASHEET_CAUTIONS]
-  for (const c of family.cautions) if (!cautions.includes(c)) cautions.push(c)
+  const cautions = mergeCautions(DATASHEET_CAUTIONS, family.cautions)
 
   return {
     title: `Data sheet: ${entry.name}`,

@@ -12,6 +12,7 @@ import type { Entry } from '../../api/db'
 import { RETIRED_NOTICE, configureTarget } from '../../api/services/configure'
 import { resolveConfiguration } from '../../api/services/configuration-input'
 import { DATASHEET_CAUTIONS } from '../../api/services/datasheet'
+import { mergeCautions } from '../../api/services/cautions'
 import { curveCsvOf } from '../../api/services/downloads'
 import { listMaterials } from '../../api/services/materials'
 import { bearer, demoEmail, signInAs, startTestApp, type TestApp } from './helpers'
@@ -322,7 +323,8 @@ describe('GET /api/entries/:id/datasheet', () => {
     expect(sheet.metrics.find((m: { key: string }) => m.key === 'peakForce')).toMatchObject({ label: 'Peak force', unit: 'N' })
     expect(sheet.verdict.nominal.verdict).toBe('inside')
     expect(sheet.printability.basis).toMatch(/common practice/)
-    for (const caution of DATASHEET_CAUTIONS) expect(sheet.cautions).toContain(caution)
+    expect(sheet.cautions).toEqual(mergeCautions(DATASHEET_CAUTIONS, getFamily('bistable-beam').cautions))
+    expect(sheet.cautions).toContain(DATASHEET_CAUTIONS[DATASHEET_CAUTIONS.length - 1])
     expect(sheet.fileName).toBe('power-switch-field-node-shell-s1-bistable-beam-span60-ah2.1-t0.8-depth6-pl0-datasheet.pdf')
   })
 

@@ -10,7 +10,7 @@ import type { WindowOverlay } from '@/api/configure'
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
 import { axisName, valueAxisStyle } from './chartAxes'
-import { markerLabels, type CurveMarker } from './curveMarkers'
+import { markerLabels, unstableMarkerStyle, type CurveMarker } from './curveMarkers'
 import { formatNumber } from './metrics'
 
 type Axes = Curve['axes']
@@ -99,7 +99,7 @@ export interface ConfigureChartInput {
 
 const symbols: Record<CurveMarker['kind'], { symbol: string; size: number }> = {
   stable: { symbol: 'circle', size: 11 },
-  // a filled circle in the surface colour with an ink ring ('emptyCircle' would stroke in the fill colour)
+  // an ink ring with a clear middle (unstableMarkerStyle; 'emptyCircle' would stroke in the fill colour)
   unstable: { symbol: 'circle', size: 11 },
   peak: { symbol: 'triangle', size: 12 },
   valley: { symbol: 'path://M0,0 L10,0 L5,9 Z', size: 12 },
@@ -173,7 +173,7 @@ export function configureChartOption(input: ConfigureChartInput): Record<string,
         coord: [m.x, m.y],
         symbol: symbols[m.kind].symbol,
         symbolSize: symbols[m.kind].size,
-        itemStyle: { color: m.kind === 'unstable' ? p.surface : p.ink, borderColor: p.ink, borderWidth: m.kind === 'unstable' ? 2 : 0 },
+        itemStyle: m.kind === 'unstable' ? unstableMarkerStyle(p) : { color: p.ink, borderColor: p.ink, borderWidth: 0 },
         label: {
           show: m.kind === 'peak' || m.kind === 'valley',
           formatter: `${formatNumber(m.y)} ${yUnit}`,

@@ -3,7 +3,7 @@ import type { Curve } from '@/api/types'
 import type { Palette } from '@/theme/tokens'
 import { fontFamily } from '@/theme/tokens'
 import { axisName, valueAxisStyle } from './chartAxes'
-import { markerLabels, type CurveMarker } from './curveMarkers'
+import { markerLabels, unstableMarkerStyle, type CurveMarker } from './curveMarkers'
 import { formatNumber, type ForceWindow } from './metrics'
 
 export interface CurveChartInput {
@@ -22,7 +22,8 @@ function points(curve: Curve): Array<[number, number]> {
 
 const symbols: Record<CurveMarker['kind'], { symbol: string; size: number }> = {
   stable: { symbol: 'circle', size: 11 },
-  unstable: { symbol: 'emptyCircle', size: 11 },
+  // a ring ('emptyCircle' strokes in the fill colour, so it showed no outline): see unstableMarkerStyle
+  unstable: { symbol: 'circle', size: 12 },
   peak: { symbol: 'triangle', size: 12 },
   valley: { symbol: 'path://M0,0 L10,0 L5,9 Z', size: 12 },
 }
@@ -42,10 +43,10 @@ export function curveChartOption(input: CurveChartInput): Record<string, unknown
     symbol: symbols[m.kind].symbol,
     symbolSize: symbols[m.kind].size,
     symbolRotate: 0,
-    itemStyle: {
-      color: m.kind === 'unstable' ? p.surface : (m.kind === 'peak' || m.kind === 'valley') && inWindow(m.y) ? p.window : p.ink,
+    itemStyle: m.kind === 'unstable' ? unstableMarkerStyle(p) : {
+      color: (m.kind === 'peak' || m.kind === 'valley') && inWindow(m.y) ? p.window : p.ink,
       borderColor: (m.kind === 'peak' || m.kind === 'valley') && inWindow(m.y) ? p.window : p.ink,
-      borderWidth: m.kind === 'unstable' ? 2 : 0,
+      borderWidth: 0,
     },
     label: {
       show: m.kind === 'peak' || m.kind === 'valley',

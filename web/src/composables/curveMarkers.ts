@@ -105,3 +105,11 @@ export const markerLabels: Record<MarkerKind, string> = {
   peak: 'Peak',
   valley: 'Valley',
 }
+
+/**
+ * The unstable position's marker: an ink ring with a clear middle, so it is outlined on both
+ * themes and the curve stays visible through it (a filled marker hid the line where it crosses zero).
+ */
+export function unstableMarkerStyle(p: { ink: string }): { color: string; borderColor: string; borderWidth: number } {
+  return { color: 'rgba(0, 0, 0, 0)', borderColor: p.ink, borderWidth: 2 }
+}
