@@ -1,15 +1,25 @@
 /**
- * A small pool of search threads shared by every app in the process: searches run off the
- * request thread, so sign-ins and page loads are not stalled by a long one. Threads start
- * on first use, are unref'd (they never hold the process open) and are replaced if one dies.
+ * The pool of search threads shared by every app in the process, on piscina: searches run off
+ * the request thread, so sign-ins and page loads are not stalled by a long one. Threads start
+ * on first use, stay warm (starting one, tsx plus the catalog, takes about a second), and a
+ * thread that dies is replaced by piscina.
+ *
+ * A search is time-sliced in its thread, so one thread interleaves several. Each task carries
+ * a MessagePort: progress comes back on it, and a cancel goes out on it, read between slices.
+ * The compute budget works as before: past it the search is first asked to stop; a thread
+ * still busy BUDGET_GRACE_MS after is terminated (piscina replaces it), and
+ * the other searches it was running are refused as busy (503), not failed. Past
+ * SEARCHES_PER_THREAD running per thread, searches wait in piscina's queue; a full queue
+ * refuses a new one at once (503 busy). The per-user limit is the search service's.
  */
 import { availableParallelism } from 'node:os'
-import { Worker } from 'node:worker_threads'
+import { MessageChannel } from 'node:worker_threads'
+import { Piscina } from 'piscina'
 import type { SearchAnswer, SearchProgress } from '../../../catalog'
 import { SearchCancelledError, ValidationError } from '../../../catalog'
 import { ComputeBudgetExceededError, ComputeBusyError, type ComputeAsk } from '../compute/budget'
 import { computeBudgetMs } from '../compute-pool'
-import type { FromWorker, SearchTask } from './protocol'
+import type { PortMessage, SearchTask, ThreadOutcome, ThreadTask } from './protocol'
 
 export interface RunOptions {
   onProgress?: (progress: SearchProgress) => void
@@ -27,115 +37,124 @@ export interface RunOptions {
 export const BUDGET_GRACE_MS = 250
 /** Old-generation heap of one search thread, MB: a runaway search ends its thread, not the server. */
 export const SEARCH_THREAD_HEAP_MB = 512
+/** Searches one thread interleaves before further ones wait in the queue. */
+export const SEARCHES_PER_THREAD = 8
+/** Searches waiting per thread before a new one is refused as busy. */
+export const SEARCH_QUEUE_PER_THREAD = 16
 
-interface Pending {
-  resolve: (answer: SearchAnswer) => void
-  reject: (error: Error) => void
-  onProgress?: (progress: SearchProgress) => void
-}
-
-interface Thread {
-  worker: Worker
-  pending: Map<number, Pending>
-}
+/** Longest wait, once a search has ended, for its last progress message, ms. */
+const PORT_DRAIN_MS = 200
 
 const ENTRY = new URL('./worker-entry.mjs', import.meta.url)
 
 /** One thread per core beyond the one serving requests, at least one and at most two. */
 export const DEFAULT_POOL_SIZE = Math.max(1, Math.min(2, availableParallelism() - 1))
 
+/** A failure the thread reported itself (passed on as it is). */
+class OutcomeError extends Error {}
+
+function isQueueFull(err: unknown): boolean {
+  return err instanceof Error && /queue is at limit|No task queue available/i.test(err.message)
+}
+
 export class SearchPool {
-  private threads: Thread[] = []
-  private nextId = 1
+  private pool: Piscina<ThreadTask, ThreadOutcome> | null = null
+  private spawned = 0
 
   constructor(readonly size = DEFAULT_POOL_SIZE) {}
 
-  /** Runs one search on the least busy thread; rejects with an AbortError when cancelled. */
-  run(task: SearchTask, options: RunOptions = {}): Promise<SearchAnswer> {
-    if (options.signal?.aborted) return Promise.reject(new SearchCancelledError())
-    const thread = this.pick()
-    const id = this.nextId++
-    const budgetMs = options.budgetMs ?? computeBudgetMs()
-    const ask = options.ask ?? { task: 'search', what: `the search for a ${task.window.kind} window` }
-    return new Promise<SearchAnswer>((resolve, reject) => {
-      let exceeded = false
-      let grace: NodeJS.Timeout | undefined
-      const abort = () => thread.worker.postMessage({ type: 'cancel', id })
-      options.signal?.addEventListener('abort', abort, { once: true })
-      const budget = setTimeout(() => {
-        exceeded = true
-        abort()
-        grace = setTimeout(() => this.stop(thread), BUDGET_GRACE_MS)
-      }, budgetMs)
-      const settle = () => {
-        clearTimeout(budget)
-        clearTimeout(grace)
-        options.signal?.removeEventListener('abort', abort)
-      }
-      thread.pending.set(id, {
-        resolve: (a) => { settle(); resolve(a) },
-        reject: (e) => { settle(); reject(exceeded ? new ComputeBudgetExceededError(ask, budgetMs) : e) },
-        onProgress: options.onProgress,
+  private threads(): Piscina<ThreadTask, ThreadOutcome> {
+    if (!this.pool) {
+      const pool = new Piscina<ThreadTask, ThreadOutcome>({
+        filename: ENTRY.href,
+        minThreads: 0,
+        maxThreads: this.size,
+        concurrentTasksPerWorker: SEARCHES_PER_THREAD,
+        maxQueue: this.size * SEARCH_QUEUE_PER_THREAD,
+        resourceLimits: { maxOldGenerationSizeMb: SEARCH_THREAD_HEAP_MB },
+        idleTimeout: Number.POSITIVE_INFINITY,
+        // a thread interleaves time-sliced searches on its event loop: never block it waiting for tasks
+        atomics: 'disabled',
       })
-      thread.worker.postMessage({ type: 'run', id, task })
-    })
+      pool.on('workerCreate', () => { this.spawned++ })
+      // a thread that dies with no search on it is replaced; nothing to report to a caller
+      pool.on('error', () => undefined)
+      this.pool = pool
+    }
+    return this.pool
   }
 
-  /** Ends a thread that did not stop when asked; its other searches are refused as busy (503), not failed. */
-  private stop(thread: Thread) {
-    if (!this.threads.includes(thread)) return
-    this.threads = this.threads.filter((t) => t !== thread)
-    for (const p of thread.pending.values()) p.reject(new ComputeBusyError('the search'))
-    thread.pending.clear()
-    void thread.worker.terminate()
+  /** Runs one search in a search thread; rejects with an AbortError when cancelled. */
+  async run(task: SearchTask, options: RunOptions = {}): Promise<SearchAnswer> {
+    if (options.signal?.aborted) throw new SearchCancelledError()
+    const pool = this.threads()
+    const budgetMs = options.budgetMs ?? computeBudgetMs()
+    const ask = options.ask ?? { task: 'search', what: `the search for a ${task.window.kind} window` }
+    const { port1, port2 } = new MessageChannel()
+    let exceeded = false
+    let grace: NodeJS.Timeout | undefined
+    /** The thread running this search, once it has picked it up. */
+    let threadId: number | null = null
+    const cancel = () => port1.postMessage({ type: 'cancel' } satisfies PortMessage)
+    options.signal?.addEventListener('abort', cancel, { once: true })
+    const budget = setTimeout(() => {
+      exceeded = true
+      cancel()
+      grace = setTimeout(() => this.stopThread(threadId), BUDGET_GRACE_MS)
+    }, budgetMs)
+    port1.on('message', (m: PortMessage) => {
+      if (m.type === 'started') threadId = m.threadId
+      else if (m.type === 'progress') options.onProgress?.(m.progress)
+    })
+    // the thread closes its end when the task ends, after its last progress message
+    const drained = new Promise<void>((resolve) => port1.once('close', resolve))
+    try {
+      // no abort signal is handed to piscina: it would run one search per thread instead of interleaving them
+      const outcome = await pool.run({ task, port: port2 }, { transferList: [port2] })
+      // the outcome and the progress travel on different channels: let the last progress arrive first
+      await Promise.race([drained, new Promise<void>((resolve) => setTimeout(resolve, PORT_DRAIN_MS))])
+      if (outcome.type === 'result') return outcome.answer
+      if (exceeded) throw new ComputeBudgetExceededError(ask, budgetMs)
+      if (outcome.type === 'cancelled') throw new SearchCancelledError()
+      if (outcome.issues) throw new ValidationError(outcome.issues)
+      throw new OutcomeError(`search failed in its thread: ${outcome.name}: ${outcome.message}`)
+    } catch (err) {
+      if (err instanceof ComputeBudgetExceededError || err instanceof SearchCancelledError || err instanceof ValidationError || err instanceof OutcomeError) throw err
+      if (exceeded) throw new ComputeBudgetExceededError(ask, budgetMs)
+      if (isQueueFull(err)) throw new ComputeBusyError('the search')
+      // another search past its budget had this thread stopped: this one is refused as busy, not failed
+      if (threadId !== null && this.stopped.has(threadId)) throw new ComputeBusyError('the search')
+      throw new Error(`the search thread failed: ${(err as Error).message}`)
+    } finally {
+      clearTimeout(budget)
+      clearTimeout(grace)
+      options.signal?.removeEventListener('abort', cancel)
+      port1.close()
+    }
+  }
+
+  /** Threads this pool stopped (a search past its budget that did not stop when asked). */
+  private readonly stopped = new Set<number>()
+
+  /** Ends a thread that did not stop when asked; piscina replaces it and fails its other searches, which run() refuses as busy. */
+  private stopThread(threadId: number | null): void {
+    if (threadId === null || !this.pool) return
+    const worker = this.pool.threads.find((w) => w.threadId === threadId)
+    if (!worker) return
+    this.stopped.add(threadId)
+    void worker.terminate()
   }
 
   /** Threads started so far (tests and the bench read it). */
   get started(): number {
-    return this.threads.length
+    return this.spawned
   }
 
   async close(): Promise<void> {
-    const threads = this.threads
-    this.threads = []
-    await Promise.all(threads.map((t) => t.worker.terminate()))
-  }
-
-  private pick(): Thread {
-    if (this.threads.length < this.size) {
-      const idle = this.threads.find((t) => t.pending.size === 0)
-      if (idle) return idle
-      return this.spawn()
-    }
-    return this.threads.reduce((a, b) => (b.pending.size < a.pending.size ? b : a))
-  }
-
-  private spawn(): Thread {
-    const worker = new Worker(ENTRY, { resourceLimits: { maxOldGenerationSizeMb: SEARCH_THREAD_HEAP_MB } })
-    worker.unref()
-    const thread: Thread = { worker, pending: new Map() }
-    worker.on('message', (m: FromWorker) => this.receive(thread, m))
-    const fail = (error: Error) => {
-      this.threads = this.threads.filter((t) => t !== thread)
-      for (const p of thread.pending.values()) p.reject(error)
-      thread.pending.clear()
-    }
-    worker.on('error', (e) => fail(new Error(`the search thread failed: ${e.message}`)))
-    worker.on('exit', (code) => fail(new Error(`the search thread stopped (exit code ${code})`)))
-    this.threads.push(thread)
-    return thread
-  }
-
-  private receive(thread: Thread, m: FromWorker) {
-    if (m.type === 'ready') return
-    const p = thread.pending.get(m.id)
-    if (!p) return
-    if (m.type === 'progress') { p.onProgress?.(m.progress); return }
-    thread.pending.delete(m.id)
-    if (m.type === 'result') p.resolve(m.answer)
-    else if (m.type === 'cancelled') p.reject(new SearchCancelledError())
-    else if (m.issues) p.reject(new ValidationError(m.issues))
-    else p.reject(new Error(`search failed in its thread: ${m.name}: ${m.message}`))
+    const pool = this.pool
+    this.pool = null
+    this.spawned = 0
+    await pool?.destroy()
   }
 }
 

@@ -1,6 +1,8 @@
-// Worker threads do not inherit the parent's TypeScript loader on Node 20, so the search
-// worker registers tsx itself before it loads its TypeScript body.
+// Worker threads do not inherit the parent's TypeScript loader on Node 20, so each search
+// thread registers tsx itself, then hands piscina the TypeScript body's task function.
 import { register } from 'tsx/esm/api'
 
 register()
-await import('./worker.ts')
+const { default: search } = await import('./worker.ts')
+
+export default search

@@ -1,19 +1,16 @@
 /**
- * One search thread: runs the catalog's time-sliced search for each task it is sent, so a
- * cancel message is read between slices, and posts throttled progress back.
+ * A search thread: piscina calls the default export once per search. It runs the catalog's
+ * time-sliced search, so a cancel on the task's port is read between slices, and posts
+ * throttled progress back on that port.
  */
-import { parentPort } from 'node:worker_threads'
+import { threadId } from 'node:worker_threads'
 import { families, searchShelf, ValidationError, type SearchProgress } from '../../../catalog'
 import { ShelfTextIndex } from '../../../catalog/search'
-import type { FromWorker, SearchTask, ToWorker } from './protocol'
+import type { PortMessage, SearchTask, ThreadOutcome, ThreadTask } from './protocol'
 
 /** Least time between two progress messages of one task, ms (phase changes always go). */
 const PROGRESS_EVERY_MS = 40
 
-const port = parentPort
-if (!port) throw new Error('the search worker must run in a worker thread')
-const post = (message: FromWorker) => port.postMessage(message)
-const running = new Map<number, AbortController>()
 let index: { version: string; index: ShelfTextIndex } | null = null
 
 function textIndex(task: SearchTask): ShelfTextIndex {
@@ -25,9 +22,10 @@ function textIndex(task: SearchTask): ShelfTextIndex {
   return index.index
 }
 
-async function run(id: number, task: SearchTask) {
+export default async function search({ task, port }: ThreadTask): Promise<ThreadOutcome> {
   const controller = new AbortController()
-  running.set(id, controller)
+  port.postMessage({ type: 'started', threadId } satisfies PortMessage)
+  port.on('message', (m: PortMessage) => { if (m.type === 'cancel') controller.abort() })
   let last = 0
   let lastPhase = ''
   const onProgress = (progress: SearchProgress) => {
@@ -35,22 +33,16 @@ async function run(id: number, task: SearchTask) {
     if (progress.phase === lastPhase && now - last < PROGRESS_EVERY_MS) return
     last = now
     lastPhase = progress.phase
-    post({ type: 'progress', id, progress })
+    port.postMessage({ type: 'progress', progress } satisfies PortMessage)
   }
   try {
     const answer = await searchShelf(task.window, task.shelf, { materials: task.materials, index: textIndex(task), onProgress, signal: controller.signal })
-    post({ type: 'result', id, answer })
+    return { type: 'result', answer }
   } catch (e) {
     const err = e as Error
-    if (err.name === 'AbortError') post({ type: 'cancelled', id })
-    else post({ type: 'failed', id, name: err.name, message: err.message, issues: err instanceof ValidationError ? err.issues : undefined })
+    if (err.name === 'AbortError') return { type: 'cancelled' }
+    return { type: 'failed', name: err.name, message: err.message, issues: err instanceof ValidationError ? err.issues : undefined }
   } finally {
-    running.delete(id)
+    port.close()
   }
 }
-
-port.on('message', (message: ToWorker) => {
-  if (message.type === 'run') void run(message.id, message.task)
-  else running.get(message.id)?.abort()
-})
-post({ type: 'ready' })
