@@ -7,7 +7,7 @@
  * always shown.
  */
 
-export type CautionTopic = 'estimate' | 'creep' | 'fatigue' | 'review' | 'codes'
+type CautionTopic = 'estimate' | 'creep' | 'fatigue' | 'review' | 'codes'
 
 /** What makes a caution speak to a topic (the words the cautions use for it). */
 const TOPIC_PATTERNS: Record<CautionTopic, RegExp> = {
@@ -18,7 +18,7 @@ const TOPIC_PATTERNS: Record<CautionTopic, RegExp> = {
   codes: /\bcodes\b/i,
 }
 
-export function topicsOf(text: string): Set<CautionTopic> {
+function topicsOf(text: string): Set<CautionTopic> {
   return new Set((Object.keys(TOPIC_PATTERNS) as CautionTopic[]).filter((t) => TOPIC_PATTERNS[t].test(text)))
 }
 

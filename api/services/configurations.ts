@@ -240,7 +240,7 @@ export async function deleteConfiguration(context: AppContext, viewer: User, id:
 }
 
 /** 24 random bytes (192 bits) as base64url: 32 characters nobody guesses. */
-function newShareToken(): string {
+export function newShareToken(): string {
   return randomBytes(24).toString('base64url')
 }
 
