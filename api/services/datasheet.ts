@@ -11,6 +11,7 @@ import type { ConfigurationInput } from './configuration-input'
 import { checkTarget, type ConfigureTarget } from './configure'
 import { downloadFileName } from './file-names'
 import { GENERAL_CAUTIONS, mergeCautions } from './cautions'
+import { RAD_PER_DEG } from '../../catalog/units'
 
 /** Said on every data sheet, whatever the family, unless the family's own cautions make the same point (cautions.ts). */
 export const DATASHEET_CAUTIONS: readonly string[] = GENERAL_CAUTIONS
@@ -20,7 +21,6 @@ export type WindowOverlay = z.infer<typeof contract.WindowOverlay>
 type CurveMarker = z.infer<typeof contract.CurveMarker>
 export type Datasheet = z.infer<typeof contract.Datasheet>
 
-const RAD_PER_DEG = Math.PI / 180
 
 type Range = { min?: number; max?: number } | undefined
 

@@ -6,23 +6,7 @@
  */
 import Papa from 'papaparse'
 import type { MeasuredCurve } from '../db/models/test-report'
-
-/**
- * Exact conversion factors to mm and N, NIST Special Publication 811 (2008), Appendix B.8:
- * inch → metre 2.54 E−02 (exact); gram-force → newton 9.806 65 E−03 (exact, standard
- * gravity); pound-force → newton 4.448 222 E+00, here to the exact value
- * 0.453 592 37 kg × 9.806 65 m/s² = 4.448 221 615 260 5 N.
- */
-const LENGTH_TO_MM = { mm: 1, in: 25.4 } as const
-const FORCE_TO_N = { N: 1, gf: 0.00980665, lbf: 4.4482216152605 } as const
-/** Hinge families plot rotation (deg) against moment (N·mm); those files are read as they are. */
-export const ROTATION_UNITS = ['deg'] as const
-export const MOMENT_UNITS = ['N·mm'] as const
-
-export const DISPLACEMENT_UNITS = ['mm', 'in', 'deg'] as const
-export const FORCE_UNITS = ['N', 'gf', 'lbf', 'N·mm'] as const
-type DisplacementUnit = (typeof DISPLACEMENT_UNITS)[number]
-type ForceUnit = (typeof FORCE_UNITS)[number]
+import { displacementFactor, forceFactor, type DisplacementUnit, type ForceUnit } from '../../catalog/units'
 
 const MIN_POINTS = 5
 /**
@@ -183,8 +167,8 @@ export function parseMeasuredCurve(buffer: Buffer, options: CsvOptions): ParsedC
   }
   const displacement: number[] = []
   const force: number[] = []
-  const lengthFactor = options.displacementUnit === 'in' ? LENGTH_TO_MM.in : 1
-  const forceFactor = options.forceUnit === 'gf' ? FORCE_TO_N.gf : options.forceUnit === 'lbf' ? FORCE_TO_N.lbf : 1
+  const lengthFactor = displacementFactor(options.displacementUnit)
+  const forceScale = forceFactor(options.forceUnit)
   let previous = 0
   for (const row of data) {
     const values: number[] = []
@@ -201,7 +185,7 @@ export function parseMeasuredCurve(buffer: Buffer, options: CsvOptions): ParsedC
     }
     previous = values[0]
     displacement.push(d)
-    force.push(values[1] * forceFactor)
+    force.push(values[1] * forceScale)
   }
   if (displacement.length < MIN_POINTS) {
     fail(`the file has ${displacement.length} data row(s); a measured curve needs at least ${MIN_POINTS}`, data.length ? data[data.length - 1].line : first.line, null)

@@ -20,7 +20,8 @@ import { comparisonOf, reportsVisibleTo, showEntry, toReportView, visibleTo } fr
 import { listMaterials } from './materials'
 import { librarianAddresses, notify, type Notice } from './notifications'
 import { compareReport, predictedMaterialOf, type MaterialNumbers } from './report-comparison'
-import { CsvError, DISPLACEMENT_UNITS, FORCE_UNITS, MOMENT_UNITS, parseMeasuredCurve, ROTATION_UNITS } from './report-csv'
+import { CsvError, parseMeasuredCurve } from './report-csv'
+import { DISPLACEMENT_UNITS, FORCE_UNITS, fileUnitChoices } from '../../catalog/units'
 import { neutraliseCsvFormulae } from './csv-safety'
 import { fileStore } from './file-store'
 
@@ -68,13 +69,16 @@ const tooLarge = (field: string, limit: number) =>
 function checkUnits(entry: Entry, displacementUnit: string | undefined, forceUnit: string | undefined) {
   const family = families.find((f) => f.id === entry.familyId)
   const rotational = family?.axes.displacement.unit === 'deg'
-  const d = displacementUnit ?? (rotational ? 'deg' : 'mm')
-  const f = forceUnit ?? (rotational ? 'N·mm' : 'N')
+  const allowed = fileUnitChoices(family?.axes.displacement.unit)
+  const d = displacementUnit ?? allowed.displacement[0]
+  const f = forceUnit ?? allowed.force[0]
   const issues = []
-  if (rotational && !(ROTATION_UNITS as readonly string[]).includes(d)) issues.push({ field: 'displacementUnit', message: `displacementUnit: this entry's curve is rotation in deg; use deg` })
-  if (!rotational && !['mm', 'in'].includes(d)) issues.push({ field: 'displacementUnit', message: `displacementUnit: this entry's curve is displacement; use mm or in` })
-  if (rotational && !(MOMENT_UNITS as readonly string[]).includes(f)) issues.push({ field: 'forceUnit', message: `forceUnit: this entry's curve is moment in N·mm; use N·mm` })
-  if (!rotational && !['N', 'gf', 'lbf'].includes(f)) issues.push({ field: 'forceUnit', message: `forceUnit: this entry's curve is force; use N, gf or lbf` })
+  if (!(allowed.displacement as readonly string[]).includes(d)) {
+    issues.push({ field: 'displacementUnit', message: rotational ? `displacementUnit: this entry's curve is rotation in deg; use deg` : `displacementUnit: this entry's curve is displacement; use mm or in` })
+  }
+  if (!(allowed.force as readonly string[]).includes(f)) {
+    issues.push({ field: 'forceUnit', message: rotational ? `forceUnit: this entry's curve is moment in N·mm; use N·mm` : `forceUnit: this entry's curve is force; use N, gf or lbf` })
+  }
   if (issues.length) throw validationFailed(issues)
   return { displacementUnit: d as 'mm', forceUnit: f as 'N' }
 }

@@ -12,10 +12,10 @@ import { fontFamily } from '@/theme/tokens'
 import { axisName, valueAxisStyle } from './chartAxes'
 import { markerLabels, unstableMarkerStyle, type CurveMarker } from './curveMarkers'
 import { formatNumber } from './metrics'
+import { RAD_PER_DEG } from '@catalog/units'
 
 type Axes = Curve['axes']
 
-const RAD_PER_DEG = Math.PI / 180
 
 /**
  * The window's bounds in the curve's own units. A holding force h is a pull back into the

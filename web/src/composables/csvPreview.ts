@@ -5,10 +5,7 @@
  * lets the contributor pick the columns and units with the data in view.
  */
 import Papa from 'papaparse'
-
-/** Exact factors to mm and N, NIST SP 811 (2008) Appendix B.8: 1 in = 25.4 mm; 1 gf = 9.806 65 mN; 1 lbf = 4.448 221 615 260 5 N. */
-const LENGTH_TO_MM: Record<string, number> = { mm: 1, in: 25.4, deg: 1 }
-const FORCE_TO_N: Record<string, number> = { N: 1, gf: 0.00980665, lbf: 4.4482216152605, 'N·mm': 1 }
+import { displacementFactor, forceFactor } from '@catalog/units'
 
 export const PREVIEW_ROWS = 8
 const MIN_POINTS = 5
@@ -112,8 +109,8 @@ export function firstProblem(preview: CsvPreview, displacement: number, force: n
 export function previewCurve(preview: CsvPreview, displacement: number, force: number, displacementUnit: string, forceUnit: string): { displacement: number[]; force: number[] } | null {
   if (firstProblem(preview, displacement, force)) return null
   const decimalComma = preview.delimiter !== ','
-  const lf = LENGTH_TO_MM[displacementUnit] ?? 1
-  const ff = FORCE_TO_N[forceUnit] ?? 1
+  const lf = displacementFactor(displacementUnit)
+  const ff = forceFactor(forceUnit)
   return {
     displacement: preview.rows.map((r) => parseCell(r.cells[displacement], decimalComma)! * lf),
     force: preview.rows.map((r) => parseCell(r.cells[force], decimalComma)! * ff),

@@ -4,6 +4,7 @@
  */
 import type { Curve } from '@/api/types'
 import type { WindowKind } from '@catalog/window/quantities'
+import { RAD_PER_DEG } from '@catalog/units'
 
 export interface SparkWindow {
   /** Horizontal bands [low, high] in the curve's force unit (null ends are open). */
@@ -32,7 +33,7 @@ export function sparkWindow(kind: WindowKind, window: Record<string, unknown> | 
   } else {
     const s = pair(r(kind === 'hinge' ? 'rotationalStiffness' : 'stiffness'))
     // a hinge's stiffness is per radian; its curve may be drawn in degrees
-    const perUnit = kind === 'hinge' && curve.axes.displacement.unit === 'deg' ? Math.PI / 180 : 1
+    const perUnit = kind === 'hinge' && curve.axes.displacement.unit === 'deg' ? RAD_PER_DEG : 1
     if (s) out.slopes.push([s[0] === null ? null : s[0] * perUnit, s[1] === null ? null : s[1] * perUnit])
   }
   return out

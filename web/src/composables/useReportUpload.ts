@@ -2,14 +2,12 @@ import { computed, ref, shallowRef, watch, type Ref } from 'vue'
 import { ApiError, asApiError } from '@/api'
 import { reportFormData, reportsApi, type ReportUploadFields, type TestReportWithEntry } from '@/api/curation'
 import type { AxisSpec } from '@/api/types'
+import { fileUnitChoices } from '@catalog/units'
 import { firstProblem, previewCsv, previewCurve, serverProblemLocation, type CsvPreview } from './csvPreview'
 
 /** The units a file may be in, from the entry's axes: rotation and moment files are read as they are. */
 export function unitChoices(axes: { displacement: AxisSpec; force: AxisSpec } | undefined) {
-  const rotational = axes?.displacement.unit === 'deg'
-  return rotational
-    ? { displacement: ['deg'], force: ['N·mm'] }
-    : { displacement: ['mm', 'in'], force: ['N', 'gf', 'lbf'] }
+  return fileUnitChoices(axes?.displacement.unit)
 }
 
 export interface UploadContext {
