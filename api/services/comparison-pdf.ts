@@ -88,12 +88,15 @@ export function renderComparisonPdf(comparison: Comparison, options: { compress?
   y = Math.max(y, plot.y + plot.h + 34)
   const col0 = 170
   const colW = (W - 72 - col0) / candidates.length
+  // one page whatever the family: a longer metrics list is set smaller (8 pt down to 6.5 pt)
+  const rows = 1 + metrics.length + printability.length
+  const size = Math.max(6.5, Math.min(8, (doc.page.height - 36 - 40 - y) / rows / 1.75))
   const row = (label: string, cells: string[], bold: number | null, head = false) => {
-    doc.font(head ? 'semibold' : 'regular').fontSize(8).fillColor(INK).text(label, 36, y, { width: col0 - 6 })
+    doc.font(head ? 'semibold' : 'regular').fontSize(size).fillColor(INK).text(label, 36, y, { width: col0 - 6 })
     cells.forEach((text, i) => {
       doc.font(i === bold || head ? 'semibold' : 'regular').fillColor(i === bold ? WINDOW : INK).text(text, 36 + col0 + i * colW, y, { width: colW - 6 })
     })
-    y = Math.max(doc.y, y + 11) + 2
+    y = Math.max(doc.y, y + size * 1.35) + 2
     doc.lineWidth(0.3).strokeColor(LINE).moveTo(36, y - 1).lineTo(W - 36, y - 1).stroke()
   }
   row('Metric (best marked)', candidates.map((c, i) => `${i + 1}. ${c.label}`), null, true)

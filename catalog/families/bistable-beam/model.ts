@@ -20,7 +20,8 @@ export const axes: { displacement: AxisSpec; force: AxisSpec } = {
 }
 
 export const metrics: MetricSpec[] = [
-  { key: 'peakForce', label: 'Peak force', unit: 'N', help: 'Largest force on the way in: what it takes to snap the switch over.' },
+  { key: 'peakForce', label: 'Peak force', unit: 'N', help: 'First local maximum of the force on the way in: what it takes to snap the switch over. Later in the travel the force can climb past it (a part that springs back); that is the largest force.' },
+  { key: 'largestForce', label: 'Largest force', unit: 'N', help: 'Largest force anywhere over the travel, to twice the apex height: what the shuttle and its stop must carry. Equals the peak force unless the force climbs past the peak later.' },
   { key: 'valleyForce', label: 'Valley force', unit: 'N', help: 'Smallest force after the peak; negative means the shuttle pulls itself into the second position.' },
   { key: 'unstablePosition', label: 'Unstable position', unit: 'mm', help: 'Where the force falls through zero between peak and valley (empty when the part springs back).' },
   { key: 'secondStablePosition', label: 'Second stable position', unit: 'mm', help: 'Where the force rises back through zero: the shuttle rests here (empty when it springs back).' },
@@ -120,7 +121,9 @@ export function evaluate(input: ModelInput): ModelOutput {
   const secondSnap = folds.length ? folds[0] : null
   // keys in the order of `metrics`
   const out: Record<string, MetricValue> = {}
-  for (const spec of metrics) out[spec.key] = spec.key === 'secondSnapPosition' ? secondSnap : reported[spec.key]
+  // the largest force is read off the curve itself, not the snap metrics: it need not be the first peak
+  const computed: Record<string, MetricValue> = { secondSnapPosition: secondSnap, largestForce: Math.max(...f) }
+  for (const spec of metrics) out[spec.key] = spec.key in computed ? computed[spec.key] : reported[spec.key]
   const warnings = warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method)
   if (secondSnap !== null) {
     warnings.push(`Second snap: the force–displacement path folds back at ${Number(secondSnap.toPrecision(3))} mm (${Number((secondSnap / p.apexHeight).toFixed(2))} × the apex height); pushed to a set position the shuttle jumps there, a second click the user will feel. The curve shows the jump; the side posts cause it, and a slightly different post length or print can move or remove it.`)

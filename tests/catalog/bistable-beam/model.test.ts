@@ -100,7 +100,7 @@ describe('flexshelf evaluate bistable-beam (CLI)', () => {
     const observed = JSON.parse(out.text())
     expect(observed.family).toBe('bistable-beam')
     expect(observed.method).toBe('nonlinear-fe')
-    expect(Object.keys(observed.metrics)).toEqual(['peakForce', 'valleyForce', 'unstablePosition', 'secondStablePosition', 'secondSnapPosition', 'energyIn', 'energyBarrier', 'bistable', 'maxStrain', 'strainLimit', 'safetyFactor'])
+    expect(Object.keys(observed.metrics)).toEqual(['peakForce', 'largestForce', 'valleyForce', 'unstablePosition', 'secondStablePosition', 'secondSnapPosition', 'energyIn', 'energyBarrier', 'bistable', 'maxStrain', 'strainLimit', 'safetyFactor'])
     expect(observed.curve.force.length).toBe(observed.curve.displacement.length)
   })
 
