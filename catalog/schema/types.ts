@@ -186,6 +186,14 @@ export interface FastEstimator {
   /** Raw-number form of `estimate` (dedicated estimators; the fallback has none). */
   fill?: FillFn
   layout?: EstimateLayout
+  /**
+   * Parameters in each of which every metric of the layout is monotone (the others held fixed),
+   * booleans and emptiness included: over a box of these parameters every metric lies between
+   * its values at the box's corners, and one empty at no corner is empty nowhere inside. Search
+   * bounds a whole block of its grid from the corners before estimating any member (block
+   * screening). A test samples each estimator to hold it to this.
+   */
+  monotoneIn?: readonly string[]
 }
 
 export type { Material }

@@ -145,6 +145,8 @@ function envelopeOf(ctx: CandidateContext, params: Record<string, number>): { x:
 }
 
 const SIGNS = [-1, 1] as const
+/** Relative widening of a box's corner hull: room for a member's rounding beyond its corners. */
+const BOX_SLACK = 1e-9
 const ZERO = [0] as const
 
 function footprintReason(footprint: ForceWindow['footprint'], env: { x: number; y: number }): string {
@@ -338,38 +340,103 @@ export class CandidateJudge {
     return this.ok
   }
 
+  /**
+   * bound() for a whole box of candidates at once, from its corners: `params` holds the box's
+   * fixed parameters, and each of `keys` (parameters the estimator is monotone in, see
+   * FastEstimator.monotoneIn) spans [lows[i], highs[i]]. Every metric of every member then lies
+   * between its values at the corners (widened by BOX_SLACK for rounding), so scoring each bound
+   * of the window at the hull's better end bounds every member's bound() from above: `ok` false
+   * only when every member certainly fails, objective, margin and safety no lower than any
+   * member's. Returns null where no bound is given (no raw-number form, a footprint to check,
+   * a corner outside the estimate, an empty or false value at a corner), else `ok`.
+   */
+  boundBox(params: Record<string, number>, keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean | null {
+    if (!this.fill || this.ctx.footprint) return null
+    const corner = this.shifted
+    for (const key in params) corner[key] = params[key]
+    const { low, high, slotOf, booleanKey } = this
+    const n = keys.length
+    for (let c = 0; c < 1 << n; c++) {
+      for (let i = 0; i < n; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
+      if (!this.estimate(corner, this.corner)) return null
+      for (let k = 0; k < slotOf.length; k++) {
+        const v = slotOf[k] >= 0 ? this.corner[slotOf[k]] : NaN
+        if (slotOf[k] >= 0 && (Number.isNaN(v) || (booleanKey[k] && v !== 1))) return null
+        if (c === 0 || v < low[k]) low[k] = v
+        if (c === 0 || v > high[k]) high[k] = v
+      }
+    }
+    // optimistic: each bound scored at the hull's better end (sideMargin reads the low end of a
+    // minimum and the high end of a maximum), so the ends are swapped and widened
+    for (let k = 0; k < slotOf.length; k++) {
+      if (slotOf[k] < 0 || booleanKey[k]) continue
+      const lo = low[k]
+      const hi = high[k]
+      low[k] = hi + BOX_SLACK * Math.abs(hi)
+      high[k] = lo - BOX_SLACK * Math.abs(lo)
+    }
+    this.optimistic = true
+    this.verdict(null, false)
+    this.optimistic = false
+    this.stage = Stage.Nominal
+    return this.ok
+  }
+
   /** The full score of `params` (judged again), with the records the engine reports. */
   score(params: Record<string, number>): CandidateScore {
     if (!this.fill) return scoreRecords(this.ctx, params, this.keys)
     this.judge(params)
-    return this.scoreJudged()
+    const s = this.scoreJudged()
+    return { ok: s.ok, reason: s.reason, windowMargin: s.windowMargin, strainMargin: s.strainMargin, footprintMargin: s.footprintMargin, objective: s.objective, nominal: s.nominal, low: s.low, high: s.high, banded: s.banded }
   }
 
   /**
    * The full score of the candidate judge() or judgeBounded() has just judged (not after
-   * bound() alone), built from the raw numbers without estimating again; the nominal record
-   * is the estimator's own record form of the same numbers.
+   * bound() alone), from the raw numbers without estimating again; the nominal record is the
+   * estimator's own record form of the same numbers. The raw numbers are copied and the records
+   * built only when first read: the engine keeps many candidates for a while (seeds, its running
+   * lists) and reads the records of few.
    */
   scoreJudged(): CandidateScore {
     if (!this.fill) return this.recordScore!
-    const base = { ok: this.ok, reason: this.reason, windowMargin: this.windowMargin, strainMargin: this.strainMargin, footprintMargin: this.footprintMargin, objective: this.objective }
-    if (this.stage < Stage.Nominal) return { ...base, nominal: null, low: null, high: null, banded: false }
+    const stage = this.stage < Stage.Nominal ? Stage.Rules : this.stage === Stage.Nominal ? Stage.Nominal : Stage.Band
+    let raw: Float64Array | null = null
+    if (stage !== Stage.Rules) {
+      const L = this.nominal.length
+      const n = this.keys.length
+      raw = new Float64Array(L + (stage === Stage.Band ? 2 * n : 0))
+      raw.set(this.nominal)
+      if (stage === Stage.Band) {
+        raw.set(this.low, L)
+        raw.set(this.high, L + n)
+      }
+    }
+    return new KeptScore(this, stage, raw)
+  }
+
+  /** KeptScore's records from its raw numbers: what scoreJudged built at once before. */
+  recordsOf(stage: Stage, raw: Float64Array | null): { nominal: Estimate | null; low: Record<string, MetricValue> | null; high: Record<string, MetricValue> | null } {
+    if (stage === Stage.Rules || !raw) return { nominal: null, low: null, high: null }
     const layout = this.layout!
     const nominal: Record<string, MetricValue> = {}
     for (let i = 0; i < layout.keys.length; i++) {
-      const v = this.nominal[i]
+      const v = raw[i]
       nominal[layout.keys[i]] = layout.booleans[i] ? v === 1 : Number.isNaN(v) ? null : v
     }
-    if (this.stage === Stage.Nominal) return { ...base, nominal, low: nominal, high: nominal, banded: false }
+    if (stage === Stage.Nominal) return { nominal, low: nominal, high: nominal }
+    const L = layout.keys.length
+    const n = this.keys.length
     const low: Record<string, MetricValue> = { ...nominal }
     const high: Record<string, MetricValue> = { ...nominal }
-    for (let k = 0; k < this.keys.length; k++) {
+    for (let k = 0; k < n; k++) {
       if (this.slotOf[k] < 0) continue
       const key = this.keys[k]
-      low[key] = this.booleanKey[k] ? this.low[k] === 1 : Number.isNaN(this.low[k]) ? null : this.low[k]
-      high[key] = this.booleanKey[k] ? this.high[k] === 1 : Number.isNaN(this.high[k]) ? null : this.high[k]
+      const lo = raw[L + k]
+      const hi = raw[L + n + k]
+      low[key] = this.booleanKey[k] ? lo === 1 : Number.isNaN(lo) ? null : lo
+      high[key] = this.booleanKey[k] ? hi === 1 : Number.isNaN(hi) ? null : hi
     }
-    return { ...base, nominal, low, high, banded: true }
+    return { nominal, low, high }
   }
 
   private estimate(params: Record<string, number>, out: Float64Array): boolean {
@@ -499,4 +566,35 @@ export class CandidateJudge {
     this.banded = s.banded
     return s.ok
   }
+}
+
+/** A kept candidate's score: the verdict's numbers at once, the records on first read (CandidateJudge.scoreJudged). */
+class KeptScore implements CandidateScore {
+  readonly ok: boolean
+  readonly reason: string | null
+  readonly windowMargin: number
+  readonly strainMargin: number | null
+  readonly footprintMargin: number | null
+  readonly objective: number
+  readonly banded: boolean
+  private records: ReturnType<CandidateJudge['recordsOf']> | null = null
+
+  constructor(private readonly judge: CandidateJudge, private readonly stage: Stage, private readonly raw: Float64Array | null) {
+    this.ok = judge.ok
+    this.reason = judge.reason
+    this.windowMargin = judge.windowMargin
+    this.strainMargin = judge.strainMargin
+    this.footprintMargin = judge.footprintMargin
+    this.objective = judge.objective
+    this.banded = stage === Stage.Band
+  }
+
+  private built() {
+    this.records ??= this.judge.recordsOf(this.stage, this.raw)
+    return this.records
+  }
+
+  get nominal(): Estimate | null { return this.built().nominal }
+  get low(): Record<string, MetricValue> | null { return this.built().low }
+  get high(): Record<string, MetricValue> | null { return this.built().high }
 }

@@ -20,7 +20,7 @@ import { MARGIN_BUCKET, marginRank, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from
 import { BestList, bestOf, rankOf, UnitKeeper, type Scored, type Unit } from './best-list'
 import { distinctAnswers, type DistinctGroup } from './distinct'
 import { refine } from './refine'
-import { entryGrid, GridCursor, type Axis } from './sampling'
+import { entryGrid, GridCursor, gridSize, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
 import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf } from './types'
 import { describeResult } from './why'
@@ -157,6 +157,31 @@ function* searchUnits(run: SearchRun): Generator<void> {
   }
 }
 
+/** Smallest blocks worth bounding from their corners: a block of n spanning axes costs 2ⁿ estimates. */
+const MIN_BLOCK_GAIN = 2
+/** Spanning axes in a block at most: a wider box bounds its members more loosely (measured: one screens the most on the bench windows). */
+const MAX_BLOCK_AXES = 1
+
+/**
+ * Where the innermost block of the grid starts: the longest run of last axes that hold one
+ * value or that the estimator is monotone in, trimmed from the outside while its corners
+ * (2ⁿ estimates for n spanning axes) would not be MIN_BLOCK_GAIN times fewer than its members.
+ * axes.length when there is no block (no raw-number form, a footprint to check, nothing monotone).
+ */
+function blockSplit(axes: Axis[], ctx: CandidateContext): number {
+  const monotone = ctx.estimator.monotoneIn
+  if (!monotone?.length || !ctx.estimator.fill || ctx.footprint) return axes.length
+  let split = axes.length
+  while (split > 0 && (axes[split - 1].values.length === 1 || monotone.includes(axes[split - 1].spec.key))) split--
+  for (; split < axes.length; split++) {
+    const block = axes.slice(split)
+    const spanning = block.filter((a) => a.values.length > 1).length
+    if (spanning > MAX_BLOCK_AXES) continue
+    if (spanning > 0 && gridSize(block) >= MIN_BLOCK_GAIN * 2 ** spanning) break
+  }
+  return split
+}
+
 /**
  * One unit's search: the grid walk, each candidate considered (its verdict tallied, kept as a
  * seed, the nearest miss or one of the unit's best), and the refinement of the seeds. The
@@ -184,28 +209,80 @@ class UnitSearch {
     this.keep = new UnitKeeper(unit, this.judge)
   }
 
-  /** The grid walk, yielding every YIELD_EVERY candidates. */
+  /**
+   * The grid walk, yielding every YIELD_EVERY candidates. The innermost axes the estimator is
+   * monotone in (or that hold one value) form blocks: once screening applies, a whole block
+   * is bounded from its corners (CandidateJudge.boundBox) and, when that bound already rules
+   * every member out, counted without estimating any of them. Otherwise its members are walked
+   * one by one as before, so the answer is the same.
+   */
   *sample(): Generator<void> {
-    const { judge, seeds, mine, run } = this
+    const { axes, judge, run } = this
+    const split = blockSplit(axes, this.ctx)
+    const params: Record<string, number> = {}
+    const outer = new GridCursor(axes.slice(0, split), params)
+    const blockAxes = axes.slice(split)
+    const inner = new GridCursor(blockAxes, params)
+    const spanning = blockAxes.filter((a) => a.values.length > 1)
+    const keys = spanning.map((a) => a.spec.key)
+    const lows = Float64Array.from(spanning, (a) => Math.min(...a.values))
+    const highs = Float64Array.from(spanning, (a) => Math.max(...a.values))
+    const blockSize = gridSize(blockAxes)
     let sinceYield = 0
-    const cursor = new GridCursor(this.axes)
-    const params = cursor.params
-    while (cursor.next()) {
-      if (++sinceYield % YIELD_EVERY === 0) yield
-      // Once this unit's list or the answer so far is full, and the seeds are, a candidate
-      // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
-      // answer (its band only ranks it lower; the reasons and nearest miss only explain an
-      // empty answer): it is counted, not banded.
-      if (seeds.length >= REFINE_SEEDS && (mine.full || (!run.distinct && run.best.full))) {
-        const couldBeOk = judge.bound(params)
-        if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !this.couldRank(params))) {
-          run.tally.considered++
+    while (outer.next()) {
+      if (keys.length && this.screening()) {
+        const couldBeOk = judge.boundBox(params, keys, lows, highs)
+        if (couldBeOk !== null && this.screenedOut(params, couldBeOk, false)) {
+          run.tally.considered += blockSize
+          const before = sinceYield
+          sinceYield += blockSize
+          if (Math.floor(sinceYield / YIELD_EVERY) > Math.floor(before / YIELD_EVERY)) yield
           continue
         }
-        judge.judgeBounded(params)
-      } else judge.judge(params)
-      this.consider(params)
+      }
+      inner.reset()
+      while (inner.next()) {
+        if (++sinceYield % YIELD_EVERY === 0) yield
+        // Once this unit's list or the answer so far is full, and the seeds are, a candidate
+        // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
+        // answer (its band only ranks it lower; the reasons and nearest miss only explain an
+        // empty answer): it is counted, not banded.
+        if (this.screening()) {
+          const couldBeOk = judge.bound(params)
+          if (this.screenedOut(params, couldBeOk, true)) {
+            run.tally.considered++
+            continue
+          }
+          judge.judgeBounded(params)
+        } else judge.judge(params)
+        this.consider(params)
+      }
     }
+  }
+
+  /** Whether candidates may be screened by bounds: the seeds are full, and this unit's list or the answer so far is. */
+  private screening(): boolean {
+    const { seeds, mine, run } = this
+    return seeds.length >= REFINE_SEEDS && (mine.full || (!run.distinct && run.best.full))
+  }
+
+  /**
+   * Whether the bound the judge holds (of one candidate, or of a block) keeps it out of the
+   * seeds and of a full list. A block's rank is bounded by its margin and safety bands only (its
+   * members' envelopes differ); one candidate's also by its envelope.
+   */
+  private screenedOut(params: Record<string, number>, couldBeOk: boolean, single: boolean): boolean {
+    const { seeds, judge } = this
+    if (judge.objective > seeds[seeds.length - 1].score.objective) return false
+    if (!couldBeOk) return true
+    return single ? !this.couldRank(params) : this.outOnBands()
+  }
+
+  /** Whether a full list already ranks ahead of the judge's bound on the margin and safety bands alone. */
+  private outOnBands(): boolean {
+    const { mine, run } = this
+    this.bands()
+    return mine.outOnBands(this.m, this.sr) || (!run.distinct && run.best.outOnBands(this.m, this.sr))
   }
 
   /** Refines around each seed and offers what each refinement ends on. */

@@ -124,15 +124,23 @@ export function* gridPoints(axes: Axis[]): Generator<Record<string, number>> {
  * result object per point: the search's hot loop. `params` is refilled in place.
  */
 export class GridCursor {
-  readonly params: Record<string, number> = {}
   private readonly index: Int32Array
   private started = false
   private done: boolean
 
-  constructor(private readonly axes: Axis[]) {
+  /** `params`: the record to fill (a block's cursor fills its axes of the outer cursor's record). */
+  constructor(private readonly axes: Axis[], readonly params: Record<string, number> = {}) {
     this.index = new Int32Array(axes.length)
     for (let i = 0; i < axes.length; i++) this.params[axes[i].spec.key] = axes[i].values[0]
     this.done = axes.some((a) => a.values.length === 0)
+  }
+
+  /** Back to before the first point. */
+  reset(): void {
+    this.index.fill(0)
+    for (let i = 0; i < this.axes.length; i++) this.params[this.axes[i].spec.key] = this.axes[i].values[0]
+    this.started = false
+    this.done = this.axes.some((a) => a.values.length === 0)
   }
 
   /** Moves to the next point (the first on the first call); false when the grid is done. */

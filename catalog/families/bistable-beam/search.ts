@@ -16,4 +16,6 @@ const LAYOUT = layoutOf([
 
 export const estimator = dedicatedEstimator('table', 'nonlinear-fe', false, LAYOUT,
   (p, E, limit, out) => fillFromTable(bistableTable(), p.span, p.apexHeight, p.thickness, p.depth, p.postLength, E, limit, out),
-  'outside the precomputed bistable table')
+  'outside the precomputed bistable table',
+  // forces ∝ depth (the table's force scale E·b·t³·h/L³); positions, strain and bistability do not depend on it
+  ['depth'])

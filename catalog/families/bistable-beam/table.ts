@@ -104,6 +104,42 @@ const acc = new Float64Array(METRICS)
  * returns false outside the table or where a surrounding node was not computed or failed.
  */
 export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = bistableTable()): boolean {
+  // Search asks for the same point many times over (every print height of a beam, and the
+  // band's corners): the last answers are kept by their exact inputs, so a repeat is a copy.
+  if (memoTable !== table) { memoTable = table; memoState.fill(0) }
+  const h = memoSlot(q, eta, w)
+  const k = 3 * h
+  if (memoState[h] !== 0 && memoKeys[k] === q && memoKeys[k + 1] === eta && memoKeys[k + 2] === w) {
+    if (memoState[h] === 2) return false
+    const o = METRICS * h
+    for (let m = 0; m < METRICS; m++) out[m] = memoValues[o + m]
+    return true
+  }
+  const ok = interpolateUncached(q, eta, w, out, table)
+  memoKeys[k] = q; memoKeys[k + 1] = eta; memoKeys[k + 2] = w
+  memoState[h] = ok ? 1 : 2
+  if (ok) memoValues.set(out.subarray(0, METRICS), METRICS * h)
+  return ok
+}
+
+/** Answers kept by interpolateTable (a power of two): direct-mapped by a hash of the inputs' bits. */
+const MEMO_SLOTS = 4096
+const memoKeys = new Float64Array(3 * MEMO_SLOTS)
+const memoValues = new Float64Array(METRICS * MEMO_SLOTS)
+/** 0 empty, 1 an answer, 2 outside the table. */
+const memoState = new Uint8Array(MEMO_SLOTS)
+let memoTable: BistableTable | null = null
+const memoBits = new Float64Array(3)
+const memoWords = new Int32Array(memoBits.buffer)
+
+function memoSlot(q: number, eta: number, w: number): number {
+  memoBits[0] = q; memoBits[1] = eta; memoBits[2] = w
+  let x = 0x811c9dc5
+  for (let i = 0; i < 6; i++) x = Math.imul(x ^ memoWords[i], 0x01000193)
+  return (x ^ (x >>> 15)) & (MEMO_SLOTS - 1)
+}
+
+function interpolateUncached(q: number, eta: number, w: number, out: Float64Array, table: BistableTable): boolean {
   const t = table
   const look = lookupOf(t)
   if (!(eta > 0) || !locate(t.q, q, 0, look.qStep) || !locate(t.logEta, Math.log(eta), 1, look.etaStep) || !locate(t.w, w, 2, look.wStep)) return false

@@ -35,4 +35,5 @@ function leafHingeFill(p: Record<string, number>, E: number, limit: number, out:
   return true
 }
 
-export const estimator = dedicatedEstimator('prbm', 'prbm', true, LEAF_LAYOUT, leafHingeFill)
+// stiffness ∝ depth, the rest independent of it (see above)
+export const estimator = dedicatedEstimator('prbm', 'prbm', true, LEAF_LAYOUT, leafHingeFill, undefined, ['depth'])

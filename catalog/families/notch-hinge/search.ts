@@ -16,4 +16,7 @@ export const estimator = dedicatedEstimator('paros-weisbord', 'paros-weisbord', 
     out[2] = strain
     out[3] = limit / strain
     return true
-  })
+  },
+  undefined,
+  // stiffness ∝ depth, range and strain independent of it; the block's thickness does not enter the compliance
+  ['depth', 'blockThickness'])

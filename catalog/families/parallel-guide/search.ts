@@ -13,4 +13,7 @@ export const estimator = dedicatedEstimator('linear', 'linear', true,
     out[3] = strain
     out[4] = limit / strain
     return true
-  })
+  },
+  undefined,
+  // stiffness ∝ depth, the rest independent of it; a wider spacing lowers the axial part of the strain, so the travel grows with it
+  ['depth', 'spacing'])

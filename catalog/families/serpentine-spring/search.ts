@@ -14,4 +14,7 @@ export const estimator = dedicatedEstimator('castigliano', 'castigliano', true,
     out[2] = perMm * maxTravel
     out[3] = limit / (perMm * maxTravel)
     return true
-  })
+  },
+  undefined,
+  // stiffness ∝ depth; the strain per millimetre, hence the travel, independent of it
+  ['depth'])

@@ -1,19 +1,49 @@
 /** Search's fast estimate of the snap hook: the snap-fit equations on raw numbers (a test holds it to the family's evaluate). */
-import { dedicatedEstimator, layoutOf, nanIfNull } from '../../schema/estimator'
-import { deflectionForce, rootStrainAt, wedgeForce } from './model'
+import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
+import { taperIntegral } from './model'
+
+const DEG = Math.PI / 180
+
+/**
+ * wedgeForce (model.ts) on raw numbers, NaN where the face locks; the tangent of the last few
+ * angles is kept, as a search walks the same few face angles over and over.
+ */
+const tanAngles = new Float64Array(4)
+const tanValues = new Float64Array(4)
+let tanNext = 0
+function tanOf(angle: number): number {
+  for (let i = 0; i < 4; i++) if (tanAngles[i] === angle && tanValues[i] === tanValues[i]) return tanValues[i]
+  const t = Math.tan(angle * DEG)
+  tanAngles[tanNext] = angle
+  tanValues[tanNext] = t
+  tanNext = (tanNext + 1) & 3
+  return t
+}
+function wedge(P: number, friction: number, angle: number): number {
+  if (angle >= 90) return NaN
+  const t = tanOf(angle)
+  const denominator = 1 - friction * t
+  if (denominator <= 0) return NaN
+  return (P * (friction + t)) / denominator
+}
+tanValues.fill(NaN)
 
 export const estimator = dedicatedEstimator('snap-fit-equations', 'snap-fit-equations', true,
   layoutOf([['deflectionForce', 1], ['matingForce', 1], ['separationForce', 1], ['rootStrain', 0], ['strainLimit', 0], ['safetyFactor', 0]]),
   (p, E, limit, out) => {
     // the root strain is taken at the undercut (a displacement), so it does not depend on E
-    const ratio = p.tipThickness / p.rootThickness
-    const P = deflectionForce(E, p.width, p.rootThickness, p.length, p.undercut, ratio)
-    const strain = rootStrainAt(p.undercut, p.length, p.rootThickness, ratio)
+    // deflectionForce and rootStrainAt written out with the taper integral taken once (the same expressions, so the same numbers)
+    const J = taperIntegral(p.tipThickness / p.rootThickness)
+    const P = (E * ((p.width * p.rootThickness ** 3) / 12) * p.undercut) / (J * p.length ** 3)
+    const strain = (p.rootThickness * p.undercut) / (2 * J * p.length * p.length)
     out[0] = P
-    out[1] = nanIfNull(wedgeForce(P, p.friction, p.entryAngle))
-    out[2] = nanIfNull(wedgeForce(P, p.friction, p.retainAngle))
+    out[1] = wedge(P, p.friction, p.entryAngle)
+    out[2] = wedge(P, p.friction, p.retainAngle)
     out[3] = strain
     out[4] = limit
     out[5] = limit / strain
     return true
-  })
+  },
+  undefined,
+  // forces ∝ width and undercut, strain ∝ undercut; the wedge forces grow with the face angle and the friction until the face locks (empty)
+  ['width', 'undercut', 'entryAngle', 'retainAngle', 'friction'])
