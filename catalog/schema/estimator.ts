@@ -34,6 +34,3 @@ function recordOf(layout: EstimateLayout, fill: FillFn, outside: string): Estima
 export function dedicatedEstimator(method: string, reproduces: string, exact: boolean, layout: EstimateLayout, fill: FillFn, outside = 'outside the fast estimate\u2019s range', monotoneIn: readonly string[] = []): FastEstimator {
   return Object.freeze({ method, reproduces, exact, layout, fill, estimate: recordOf(layout, fill, outside), monotoneIn: Object.freeze([...monotoneIn]) })
 }
-
-/** NaN for an empty (null) metric, as the slots hold it. */
-export const nanIfNull = (v: number | null): number => (v === null ? NaN : v)
