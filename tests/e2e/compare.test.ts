@@ -61,7 +61,8 @@ describe('search → compare → files', () => {
     await page.getByRole('button', { name: 'Compare result 1' }).filter({ visible: true }).first().click()
     await page.getByRole('button', { name: 'Compare result 2' }).filter({ visible: true }).first().click()
     await searchPreset('Lid hinge that swings freely')
-    await expect.poll(() => page.locator('.results-table tbody tr').first().textContent()).toMatch(/hinge/i)
+    // the previous answer stays on screen while the next search runs
+    await expect.poll(() => page.locator('.results-table tbody tr').first().textContent(), { timeout: 90_000 }).toMatch(/hinge/i)
     await page.getByRole('button', { name: 'Compare result 1' }).filter({ visible: true }).first().click()
     await page.getByRole('link', { name: 'Compare 3 chosen →' }).click()
     await page.waitForURL(`${server.url}/compare`)
