@@ -9,13 +9,13 @@
  */
 import { availableParallelism } from 'node:os'
 import { Worker, type Job } from 'bullmq'
-import type { SearchProgress } from '../catalog'
+import { SearchCancelledError, type SearchProgress } from '../catalog'
 import { ConfigError, loadConfig } from './config'
 import { ComputeBusyError } from './services/compute/budget'
 import { toFailure } from './services/compute/tasks'
 import { configureComputePool, runHere } from './services/compute-pool'
 import {
-  COMPUTE_QUEUE, encodeValue, outcomeOfError, SEARCH_CANCEL_CHANNEL, SEARCH_QUEUE,
+  COMPUTE_QUEUE, encodeValue, outcomeOfError, SEARCH_CANCEL_CHANNEL, SEARCH_QUEUE, searchCancelledKey,
   type ComputeJobData, type QueuedOutcome, type SearchJobData,
 } from './services/job-queue'
 import { connectRedis } from './services/redis'
@@ -54,10 +54,16 @@ async function main(): Promise<void> {
     }
   }, { ...common, connection: connectRedis(config.redisUrl, 'worker-compute') })
 
+  const state = connectRedis(config.redisUrl, 'worker-state')
   const searchWorker = new Worker<SearchJobData, QueuedOutcome>(SEARCH_QUEUE, async (job) => {
     if (tooLate(job)) return outcomeOfError(new ComputeBusyError('the search'), toFailure)
     const controller = new AbortController()
     running.set(job.id!, controller)
+    // cancelled while it waited in the queue (or before a stalled run came back): not run at all
+    if (await state.exists(searchCancelledKey(job.id!))) {
+      running.delete(job.id!)
+      return outcomeOfError(new SearchCancelledError(), toFailure)
+    }
     let last = 0
     const onProgress = (progress: SearchProgress) => {
       const now = Date.now()
@@ -87,7 +93,7 @@ async function main(): Promise<void> {
     if (stopping) return
     stopping = true
     Promise.allSettled([computeWorker.close(), searchWorker.close()])
-      .then(() => Promise.allSettled([subscriber.quit(), searches.close(), configureComputePool({ threads: 0 })]))
+      .then(() => Promise.allSettled([subscriber.quit(), state.quit(), searches.close(), configureComputePool({ threads: 0 })]))
       .finally(() => process.exit(0))
   }
   process.on('SIGINT', shutdown)

@@ -350,6 +350,14 @@ export const SearchAnswerSchema = z.object({
   tradeoffs: SearchTradeoffs,
 })
 export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum(['running', 'done']), cached: z.boolean() })
+export const SearchJobState = z.object({
+  id: z.string().min(1),
+  status: z.enum(['running', 'done', 'failed', 'cancelled']),
+  cached: z.boolean(),
+  progress: z.object({ done: z.number(), total: z.number(), considered: z.number(), phase: z.string() }).nullable(),
+  result: SearchAnswerSchema.extend({ cached: z.boolean() }).nullable(),
+  error: z.object({ code: z.string(), message: z.string(), details: z.record(z.string(), z.unknown()).nullable() }).nullable(),
+})
 
 // ── every route's answer ─────────────────────────────────────────────────────────────
 
@@ -427,6 +435,7 @@ export const responseContract = {
   'GET /api/compare': z.object({ comparison: z.record(z.string(), z.unknown()) }),
   'POST /api/search': SearchAnswerSchema.extend({ cached: z.boolean().optional() }),
   'POST /api/searches': SearchJobStart,
+  'GET /api/searches/:id': SearchJobState,
 } as const satisfies Record<string, z.ZodType>
 
 export type ContractRoute = keyof typeof responseContract

@@ -1,6 +1,7 @@
 import { Router, type Request, type Response } from 'express'
 import type { AppContext } from '../context'
 import { currentAuth } from '../middleware/authenticate'
+import { toHttpError } from '../middleware/error-handler'
 import { allow } from '../middleware/require-role'
 import { countSearch } from '../services/metrics'
 import { searchService, type JobEvent } from '../services/search'
@@ -36,25 +37,43 @@ export function searchesRouter(context: AppContext): Router {
     res.status(202).json({ id: job.id, status: job.status, cached: job.cached })
   }
 
-  function events(req: Request<{ id: string }>, res: Response) {
-    const job = service.job(currentAuth(req).user.id, req.params.id)
+  async function status(req: Request<{ id: string }>, res: Response) {
+    res.json(service.view(await service.job(currentAuth(req).user.id, req.params.id)))
+  }
+
+  async function events(req: Request<{ id: string }>, res: Response) {
+    const job = await service.job(currentAuth(req).user.id, req.params.id)
     res.status(200).set({ 'Content-Type': 'text/event-stream; charset=utf-8', 'Cache-Control': 'no-cache, no-transform', Connection: 'keep-alive', 'X-Accel-Buffering': 'no' })
     res.flushHeaders()
+    let closed = false
+    let stop = () => {}
+    res.on('close', () => { closed = true; clearInterval(heartbeat); stop() })
     const send = ({ event, data }: JobEvent) => {
+      if (closed) return
       res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`)
       if (event !== 'progress') res.end()
     }
     const heartbeat = setInterval(() => res.write(': still searching\n\n'), HEARTBEAT_MS)
-    const stop = service.follow(job, send)
-    res.on('close', () => { clearInterval(heartbeat); stop() })
+    try {
+      const unsubscribe = await service.follow(job, send)
+      // the browser may have left while the job was being read
+      if (closed) unsubscribe()
+      else stop = unsubscribe
+    } catch (err) {
+      // the stream has begun, so the error goes as its final event rather than a status
+      const http = toHttpError(err)
+      if (http.status >= 500) console.error(err)
+      send({ event: 'error', data: { error: { code: http.code, message: http.message, details: http.details } } })
+    }
   }
 
-  function cancel(req: Request<{ id: string }>, res: Response) {
-    service.cancel(service.job(currentAuth(req).user.id, req.params.id))
+  async function cancel(req: Request<{ id: string }>, res: Response) {
+    await service.cancel(await service.job(currentAuth(req).user.id, req.params.id))
     res.status(204).end()
   }
 
   router.post('/', allow('engineer'), start)
+  router.get('/:id', allow('engineer'), status)
   router.get('/:id/events', allow('engineer'), events)
   router.delete('/:id', allow('engineer'), cancel)
   return router

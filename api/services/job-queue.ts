@@ -32,6 +32,8 @@ import { connectRedis } from './redis'
 export const COMPUTE_QUEUE = 'flexshelf-compute'
 export const SEARCH_QUEUE = 'flexshelf-search'
 export const SEARCH_CANCEL_CHANNEL = 'flexshelf:search-cancel'
+/** Set (with an expiry) when a search is cancelled, so a worker picking the job up later does not run it. */
+export const searchCancelledKey = (jobId: string) => `flexshelf:search-cancelled:${jobId}`
 
 /** A value as JSON: bytes (STL, 3MF) travel as base64. */
 export type EncodedValue = unknown
@@ -88,6 +90,7 @@ interface Connection {
   computeEvents: QueueEvents
   searchEvents: QueueEvents
   redis: Redis
+  url: string
   budgetMs: () => number
 }
 
@@ -153,6 +156,7 @@ export async function configureJobQueue(redisUrl: string | null, budgetMs: () =>
     computeEvents: new QueueEvents(COMPUTE_QUEUE, { connection: connectRedis(redisUrl, 'compute-events') }),
     searchEvents: new QueueEvents(SEARCH_QUEUE, { connection: connectRedis(redisUrl, 'search-events') }),
     redis,
+    url: redisUrl,
     budgetMs,
   }
   await Promise.all([next.computeEvents.waitUntilReady(), next.searchEvents.waitUntilReady()])
@@ -161,7 +165,23 @@ export async function configureJobQueue(redisUrl: string | null, budgetMs: () =>
 }
 
 /** How long the API waits for a picked-up job at most: its budget, two stalled-job recoveries and their re-runs. */
-const answerWaitMs = (budgetMs: number) => budgetMs * 3 + 60_000
+export const answerWaitMs = (budgetMs: number) => budgetMs * 3 + 60_000
+
+/** The queue's Redis and settings, for state kept beside the queue (the search job registry); null without Redis. */
+export function jobQueueRedis(): { redis: Redis; url: string; budgetMs: number } | null {
+  return connection ? { redis: connection.redis, url: connection.url, budgetMs: connection.budgetMs() } : null
+}
+
+/**
+ * Cancels a queued search from any instance: the worker running it stops (a message every
+ * worker hears), and a worker that picks it up later finds the mark and does not run it.
+ */
+export async function cancelQueuedSearch(jobId: string): Promise<void> {
+  const c = connection
+  if (!c) return
+  await c.redis.set(searchCancelledKey(jobId), '1', 'PX', answerWaitMs(c.budgetMs()))
+  await c.redis.publish(SEARCH_CANCEL_CHANNEL, jobId)
+}
 
 /**
  * Waits for a job's answer. At the pick-up deadline a job still waiting is taken off the
@@ -207,6 +227,8 @@ export interface QueuedSearchOptions {
   signal?: AbortSignal
   budgetMs?: number
   ask?: ComputeAsk
+  /** The job's id on the queue: the search job's own id, so any instance can cancel it by that id. */
+  jobId?: string
 }
 
 /** SearchPool's run() over the queue: progress from whichever worker runs it, cancel reaches that worker. */
@@ -216,11 +238,11 @@ export const queuedSearchPool = {
     if (!c) throw new Error('the job queue is not configured')
     if (options.signal?.aborted) throw new SearchCancelledError()
     const budgetMs = options.budgetMs ?? c.budgetMs()
-    const jobId = randomUUID()
+    const jobId = options.jobId ?? randomUUID()
     const onProgress = ({ jobId: id, data }: { jobId: string; data: unknown }) => {
       if (id === jobId && data && typeof data === 'object') options.onProgress?.(data as SearchProgress)
     }
-    const cancel = () => void c.redis.publish(SEARCH_CANCEL_CHANNEL, jobId).catch(() => undefined)
+    const cancel = () => void cancelQueuedSearch(jobId).catch(() => undefined)
     c.searchEvents.on('progress', onProgress)
     options.signal?.addEventListener('abort', cancel, { once: true })
     try {

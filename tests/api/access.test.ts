@@ -158,6 +158,7 @@ const ROWS: Row[] = [
   { route: 'GET /api/shelf', path: () => '/api/shelf', expected: statuses(401, 200, 200, 200, 200) },
   { route: 'POST /api/search', path: () => '/api/search', body: () => SEARCH_WINDOW, expected: statuses(401, 200, 200, 200, 200) },
   { route: 'POST /api/searches', path: () => '/api/searches', body: () => SEARCH_WINDOW, expected: statuses(401, 202, 202, 202, 202) },
+  { route: 'GET /api/searches/:id', path: () => `/api/searches/${fixture.adminSearchId}`, expected: statuses(401, 404, 404, 404, 200) },
   { route: 'GET /api/searches/:id/events', path: () => `/api/searches/${fixture.adminSearchId}/events`, expected: statuses(401, 404, 404, 404, 200) },
   { route: 'DELETE /api/searches/:id', path: () => `/api/searches/${fixture.adminSearchId}`, expected: statuses(401, 404, 404, 404, 204) },
   // configure (docs/api.md, "Configure"): any signed-in user on a visible entry

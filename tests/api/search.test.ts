@@ -187,6 +187,11 @@ describe('POST /api/searches and GET /api/searches/:id/events', () => {
     const result = events.at(-1)!.data
     expect(result.results.length).toBeGreaterThan(0)
     expect(result.results.length).toBeLessThanOrEqual(5)
+     // GET /api/searches/:id afterwards: the ended job's state with the same result
+    const state = await request(t.app).get(`/api/searches/${started.body.id}`).set(bearer(engineer))
+    expect(state.status, JSON.stringify(state.body)).toBe(200)
+    expect(state.body).toMatchObject({ id: started.body.id, status: 'done', cached: false, error: null, progress: { phase: 'done' } })
+    expect(state.body.result).toEqual(result)
   })
 
   it('replays a finished job’s result to a late follower, and answers a repeated window from the cache', async () => {
@@ -205,6 +210,7 @@ describe('POST /api/searches and GET /api/searches/:id/events', () => {
   it('answers 404 to another user following or cancelling the job', async () => {
     const started = await request(t.app).post('/api/searches').set(bearer(engineer)).send({ kind: 'latch', matingForce: { max: 30 } }).expect(202)
     await request(t.app).get(`/api/searches/${started.body.id}/events`).set(bearer(contributor)).expect(404)
+    await request(t.app).get(`/api/searches/${started.body.id}`).set(bearer(contributor)).expect(404)
     await request(t.app).delete(`/api/searches/${started.body.id}`).set(bearer(contributor)).expect(404)
     await request(t.app).get('/api/searches/no-such-job/events').set(bearer(engineer)).expect(404)
   })

@@ -14,6 +14,7 @@ import { promisify } from 'node:util'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD, DEMO_USERS } from '../../api/db/demo-shelf'
 import { api, startArrangement, type Arrangement, type Proc } from '../../scripts/support/arrangement'
+import { parseEventStream, type StreamEvent } from '../api/sse'
 
 let a: Arrangement
 let one: Proc
@@ -126,6 +127,65 @@ describe('two API instances on one PostgreSQL, Redis and bucket', () => {
       expect(sample(text, 'flexshelf_queue_workers', { queue })).toBe(2)
       for (const state of ['waiting', 'active', 'failed', 'delayed']) expect(sample(text, 'flexshelf_queue_jobs', { queue, state })).toBe(0)
     }
+  })
+})
+
+describe('search jobs seen from every instance', () => {
+  const windowOf = (i: number) => ({ kind: 'bistable', peakForce: { min: 2, max: 9 + i }, materials: ['petg'] })
+  const start = (p: Proc, i: number) => api(p.url!, '/api/searches', token.engineer, { body: windowOf(i) })
+  /** Opens a job's event stream; resolves once it is open, with the events it will have carried when it ends. */
+  async function openEvents(p: Proc, id: string): Promise<{ ended: Promise<StreamEvent[]> }> {
+    const res = await fetch(`${p.url}/api/searches/${id}/events`, { headers: { Authorization: `Bearer ${token.engineer}` } })
+    expect(res.status).toBe(200)
+    // wrapped: an async function answering a promise would wait for it (the stream's end)
+    return { ended: res.text().then(parseEventStream) }
+  }
+  const pause = (signal: 'SIGSTOP' | 'SIGCONT') => { for (const w of workers) w.child.kill(signal) }
+
+  it('holds the three-search limit over both instances, and follows and cancels on one instance a search started on the other', async () => {
+    // the workers held still, so the searches are certainly still running while they are counted and cancelled
+    pause('SIGSTOP')
+    let ids: string[] = []
+    let cancelled = ''
+    try {
+      for (let i = 0; i < 3; i++) {
+        const res = await start(one, i)
+        expect(res.status, JSON.stringify(res.body)).toBe(202)
+        ids.push(res.body.id)
+      }
+      const fourth = await start(two, 3)
+      expect(fourth.status).toBe(429)
+      expect(fourth.body.error.message).toMatch(/3 searches running/)
+      const direct = await api(two.url!, '/api/search', token.engineer, { body: windowOf(4) })
+      expect(direct.status).toBe(429)
+
+      cancelled = ids[0]
+      expect((await api(two.url!, `/api/searches/${cancelled}`, token.engineer)).body).toMatchObject({ id: cancelled, status: 'running', result: null })
+      expect((await api(two.url!, `/api/searches/${cancelled}`, token.contributor)).status).toBe(404)
+      const onTwo = await openEvents(two, cancelled)
+      const onOne = await openEvents(one, cancelled)
+      expect((await api(two.url!, `/api/searches/${cancelled}`, token.engineer, { method: 'DELETE' })).status).toBe(204)
+      for (const events of [await onTwo.ended, await onOne.ended]) expect(events.map((e) => e.event), JSON.stringify(events)).toEqual(['cancelled'])
+      expect((await api(one.url!, `/api/searches/${cancelled}`, token.engineer)).body.status).toBe('cancelled')
+      // the cancel freed its place at once, on every instance
+      const replacement = await start(two, 5)
+      expect(replacement.status, JSON.stringify(replacement.body)).toBe(202)
+      ids = [...ids.slice(1), replacement.body.id]
+    } finally {
+      pause('SIGCONT')
+    }
+
+    // the others run now: each one's progress and result reach the instance that did not start it
+    for (const [id, other] of [[ids[0], two], [ids[1], two], [ids[2], one]] as const) {
+      const events = await (await openEvents(other, id)).ended
+      expect(events.some((e) => e.event === 'progress'), JSON.stringify(events).slice(0, 300)).toBe(true)
+      expect(events.at(-1)!.event, JSON.stringify(events.at(-1)).slice(0, 300)).toBe('result')
+      const state = await api(other.url!, `/api/searches/${id}`, token.engineer)
+      expect(state.body).toMatchObject({ status: 'done', error: null })
+      expect(state.body.result.results).toEqual((events.at(-1)!.data as { results: unknown[] }).results)
+    }
+    // the cancelled one stays cancelled once the workers are back, with no result
+    expect((await api(two.url!, `/api/searches/${cancelled}`, token.engineer)).body).toMatchObject({ status: 'cancelled', result: null })
   })
 })
 

@@ -1,8 +1,9 @@
 /**
  * Search as the API offers it: windows checked against the curated materials, answers
  * cached by window and shelf fingerprint, long searches as jobs that report progress and
- * can be cancelled. Jobs live in memory, belong to the user who started them, and are
- * forgotten a while after they finish.
+ * can be cancelled. Jobs belong to the user who started them and are forgotten a while after
+ * they finish; they live in memory, or in Redis beside the job queue when several instances
+ * share it (jobs.ts), so any instance answers for, streams and cancels any job.
  */
 import { randomUUID } from 'node:crypto'
 import { LRUCache } from 'lru-cache'
@@ -10,10 +11,12 @@ import { parseWindow, windowCacheKey, type ForceWindow, type SearchAnswer, type 
 import type { AppContext } from '../../context'
 import { HttpError, notFound } from '../../errors'
 import { toHttpError } from '../../middleware/error-handler'
-import { jobQueueActive, queuedSearchPool } from '../job-queue'
-import { sharedSearchPool, type SearchPool } from './pool'
+import { answerWaitMs, cancelQueuedSearch, jobQueueActive, jobQueueRedis, queuedSearchPool } from '../job-queue'
+import { MemorySearchJobs, RedisSearchJobs, type ApiSearchAnswer, type JobEvent, type JobStatus, type SearchJobRecord, type SearchJobRegistry } from './jobs'
+import { sharedSearchPool, type RunOptions } from './pool'
+import type { SearchTask } from './protocol'
 import { loadShelf, type ShelfSnapshot } from './shelf'
-import { tradeoffsOf, type Tradeoffs } from './tradeoffs'
+import { tradeoffsOf } from './tradeoffs'
 
 /** Answers kept; a window's answer is a few kilobytes. */
 export const CACHE_CAPACITY = 200
@@ -22,27 +25,16 @@ export const MAX_RUNNING_PER_USER = 3
 /** A finished job is kept this long for a late or repeated events request, ms. */
 export const FINISHED_JOB_TTL_MS = 10 * 60_000
 
-/** What the API answers for a search: the catalog's answer and its trade-off points (tradeoffs.ts). */
-export type ApiSearchAnswer = SearchAnswer & { tradeoffs: Tradeoffs }
+export type { ApiSearchAnswer, JobEvent, JobStatus, SearchJobRecord as SearchJob } from './jobs'
 
-export type JobStatus = 'running' | 'done' | 'failed' | 'cancelled'
-
-export type JobEvent =
-  | { event: 'progress'; data: SearchProgress }
-  | { event: 'result'; data: ApiSearchAnswer & { cached: boolean } }
-  | { event: 'error'; data: { error: { code: string; message: string; details: Record<string, unknown> | null } } }
-  | { event: 'cancelled'; data: { id: string } }
-
-export interface SearchJob {
+/** What GET /api/searches/:id answers: the job's state, and its result or error once it has ended. */
+export interface SearchJobView {
   id: string
-  ownerId: number
   status: JobStatus
   cached: boolean
   progress: SearchProgress | null
-  final: JobEvent | null
-  finishedAt: number | null
-  controller: AbortController
-  listeners: Set<(event: JobEvent) => void>
+  result: (ApiSearchAnswer & { cached: boolean }) | null
+  error: { code: string; message: string; details: Record<string, unknown> | null } | null
 }
 
 export interface SearchOutcome {
@@ -50,16 +42,21 @@ export interface SearchOutcome {
   cached: boolean
 }
 
+type SearchRunner = { run(task: SearchTask, options: RunOptions & { jobId?: string }): Promise<SearchAnswer> }
+
 export class SearchService {
   private readonly cache = new LRUCache<string, ApiSearchAnswer>({ max: CACHE_CAPACITY })
   private cacheVersion = ''
-  private readonly jobs = new Map<string, SearchJob>()
-  /** POST /api/search answers being computed, per user (jobs are counted from `jobs`). */
-  private readonly answering = new Map<number, number>()
+  /** Jobs started by this process and still running here, to stop them when cancelled. */
+  private readonly controllers = new Map<string, AbortController>()
   /** Cache hits and misses since start (tests and the bench read them). */
   readonly stats = { hits: 0, misses: 0 }
 
-  constructor(private readonly context: AppContext, private readonly pool: Pick<SearchPool, 'run'> = jobQueueActive() ? queuedSearchPool : sharedSearchPool()) {}
+  constructor(
+    private readonly context: AppContext,
+    private readonly pool: SearchRunner = jobQueueActive() ? queuedSearchPool : sharedSearchPool(),
+    private readonly jobs: SearchJobRegistry = defaultRegistry(),
+  ) {}
 
   /** Checks the window (400 naming the field) and loads the shelf it is searched over. */
   private async prepare(body: unknown): Promise<{ window: ForceWindow; shelf: ShelfSnapshot; key: string }> {
@@ -73,28 +70,26 @@ export class SearchService {
     return { window, shelf, key: windowCacheKey(window) }
   }
 
-  private async compute(window: ForceWindow, shelf: ShelfSnapshot, key: string, onProgress?: (p: SearchProgress) => void, signal?: AbortSignal): Promise<ApiSearchAnswer> {
-    const found = await this.pool.run({ window, shelf: shelf.entries, materials: shelf.materials, shelfVersion: shelf.version }, { onProgress, signal })
+  private async compute(window: ForceWindow, shelf: ShelfSnapshot, key: string, onProgress?: (p: SearchProgress) => void, signal?: AbortSignal, jobId?: string): Promise<ApiSearchAnswer> {
+    const found = await this.pool.run({ window, shelf: shelf.entries, materials: shelf.materials, shelfVersion: shelf.version }, { onProgress, signal, jobId })
     const answer = { ...found, tradeoffs: tradeoffsOf(found) }
     if (this.cacheVersion === shelf.version) this.cache.set(key, answer)
     return answer
   }
 
   /**
-   * Searches of one user being computed now, over both routes. A job the user has cancelled
-   * no longer counts, though its thread may take a moment to stop: "cancel one" frees a
-   * place at once, as the 429's message promises.
+   * Searches of one user being computed now, over both routes (and every instance). A job the
+   * user has cancelled no longer counts, though its thread may take a moment to stop: "cancel
+   * one" frees a place at once, as the 429's message promises.
    */
-  running(ownerId: number): number {
-    let jobs = 0
-    for (const j of this.jobs.values()) if (j.ownerId === ownerId && j.status === 'running' && !j.controller.signal.aborted) jobs++
-    return jobs + (this.answering.get(ownerId) ?? 0)
+  running(ownerId: number): Promise<number> {
+    return this.jobs.running(ownerId)
   }
 
-  /** 429 when the user already has MAX_RUNNING_PER_USER searches running, whichever route started them. */
-  private assertRoom(ownerId: number) {
-    const running = this.running(ownerId)
-    if (running >= MAX_RUNNING_PER_USER) {
+  /** Takes one of the user's MAX_RUNNING_PER_USER places, whichever route starts the search; 429 when none is free. */
+  private async takePlace(ownerId: number, member: string) {
+    const { taken, running } = await this.jobs.reserve(ownerId, member, MAX_RUNNING_PER_USER)
+    if (!taken) {
       throw new HttpError(429, 'rate_limited', `you already have ${running} searches running; cancel one or wait for it to finish`, { retryAfterSeconds: 1 })
     }
   }
@@ -104,91 +99,110 @@ export class SearchService {
     const { window, shelf, key } = await this.prepare(body)
     const hit = this.cache.get(key)
     if (hit) { this.stats.hits++; return { answer: hit, cached: true } }
-    this.assertRoom(ownerId)
+    const place = `direct:${randomUUID()}`
+    await this.takePlace(ownerId, place)
     this.stats.misses++
-    this.answering.set(ownerId, (this.answering.get(ownerId) ?? 0) + 1)
     try {
       return { answer: await this.compute(window, shelf, key, undefined, signal), cached: false }
     } finally {
-      const left = (this.answering.get(ownerId) ?? 1) - 1
-      if (left > 0) this.answering.set(ownerId, left)
-      else this.answering.delete(ownerId)
+      await this.jobs.release(ownerId, place).catch(() => undefined)
     }
   }
 
   /** Starts a search job (POST /api/searches). */
-  async start(ownerId: number, body: unknown): Promise<SearchJob> {
-    this.sweep()
+  async start(ownerId: number, body: unknown): Promise<SearchJobRecord> {
     const { window, shelf, key } = await this.prepare(body)
-    this.assertRoom(ownerId)
-    const job: SearchJob = { id: randomUUID(), ownerId, status: 'running', cached: false, progress: null, final: null, finishedAt: null, controller: new AbortController(), listeners: new Set() }
-    this.jobs.set(job.id, job)
+    const id = randomUUID()
+    await this.takePlace(ownerId, id)
     const hit = this.cache.get(key)
     if (hit) {
       this.stats.hits++
-      job.cached = true
-      job.progress = { done: 1, total: 1, considered: hit.considered, phase: 'done' }
-      this.finish(job, 'done', { event: 'result', data: { ...hit, cached: true } })
-      return job
+      const done: SearchJobRecord = {
+        id, ownerId, status: 'done', cached: true, progress: { done: 1, total: 1, considered: hit.considered, phase: 'done' },
+        final: { event: 'result', data: { ...hit, cached: true } }, finishedAt: Date.now(),
+      }
+      try {
+        await this.jobs.create(done)
+      } finally {
+        await this.jobs.release(ownerId, id)
+      }
+      return done
     }
     this.stats.misses++
-    const onProgress = (progress: SearchProgress) => {
-      job.progress = progress
-      this.emit(job, { event: 'progress', data: progress })
+    const job: SearchJobRecord = { id, ownerId, status: 'running', cached: false, progress: null, final: null, finishedAt: null }
+    try {
+      await this.jobs.create(job)
+    } catch (err) {
+      await this.jobs.release(ownerId, id).catch(() => undefined)
+      throw err
     }
-    this.compute(window, shelf, key, onProgress, job.controller.signal).then(
-      (answer) => this.finish(job, 'done', { event: 'result', data: { ...answer, cached: false } }),
+    const controller = new AbortController()
+    this.controllers.set(id, controller)
+    // a cancel on another instance ends the job there: stop the search this one is waiting for
+    const stopWatching = this.jobs.follow(id, (event) => { if (event.event === 'cancelled') controller.abort() }).catch(() => () => undefined)
+    const end = async (status: Exclude<JobStatus, 'running'>, event: JobEvent) => {
+      this.controllers.delete(id)
+      ;(await stopWatching)()
+      await this.jobs.finish(id, status, event).catch((err: unknown) => console.error(err))
+      await this.jobs.release(ownerId, id).catch(() => undefined)
+    }
+    const onProgress = (progress: SearchProgress) => void this.jobs.progress(id, progress).catch(() => undefined)
+    this.compute(window, shelf, key, onProgress, controller.signal, id).then(
+      (answer) => end('done', { event: 'result', data: { ...answer, cached: false } }),
       (e: Error) => {
-        if (e.name === 'AbortError') return this.finish(job, 'cancelled', { event: 'cancelled', data: { id: job.id } })
+        if (e.name === 'AbortError') return end('cancelled', { event: 'cancelled', data: { id } })
         const http = toHttpError(e)
         if (http.status >= 500) console.error(e)
-        this.finish(job, 'failed', { event: 'error', data: { error: { code: http.code, message: http.message, details: http.details } } })
+        return end('failed', { event: 'error', data: { error: { code: http.code, message: http.message, details: http.details } } })
       },
     )
     return job
   }
 
-  /** The caller's own job; anyone else's is not found (its id says nothing about it). */
-  job(ownerId: number, id: string): SearchJob {
-    const job = this.jobs.get(id)
+  /** The caller's own job, from whichever instance started it; anyone else's is not found (its id says nothing about it). */
+  async job(ownerId: number, id: string): Promise<SearchJobRecord> {
+    const job = await this.jobs.get(id)
     if (!job || job.ownerId !== ownerId) throw notFound('search')
     return job
   }
 
+  /** The job as GET /api/searches/:id answers it. */
+  view(job: SearchJobRecord): SearchJobView {
+    const final = job.final
+    return {
+      id: job.id, status: job.status, cached: job.cached, progress: job.progress,
+      result: final?.event === 'result' ? final.data : null,
+      error: final?.event === 'error' ? final.data.error : null,
+    }
+  }
+
   /**
    * Follows a job: the latest progress and, once it has ended, its final event are replayed
-   * first, so a late listener misses nothing. Returns the unsubscribe function.
+   * first, so a late listener misses nothing. Answers the unsubscribe function.
    */
-  follow(job: SearchJob, listener: (event: JobEvent) => void): () => void {
-    if (job.progress) listener({ event: 'progress', data: job.progress })
-    if (job.final) { listener(job.final); return () => undefined }
-    job.listeners.add(listener)
-    return () => job.listeners.delete(listener)
+  follow(job: SearchJobRecord, listener: (event: JobEvent) => void): Promise<() => void> {
+    return this.jobs.follow(job.id, listener)
   }
 
-  /** Cancels a running job (it stays, so followers see `cancelled`); forgets an ended one. */
-  cancel(job: SearchJob): void {
-    if (job.status === 'running') job.controller.abort()
-    else this.jobs.delete(job.id)
+  /**
+   * Cancels a running job (it stays, so followers see `cancelled`, on every instance, at once);
+   * forgets an ended one. A search started here is stopped here; one started elsewhere is
+   * stopped on its worker (one that has not picked it up yet never runs it), and the instance
+   * that started it hears the cancelled event and stops waiting for it.
+   */
+  async cancel(job: SearchJobRecord): Promise<void> {
+    if (job.status !== 'running') return this.jobs.forget(job.id)
+    await this.jobs.release(job.ownerId, job.id)
+    this.controllers.get(job.id)?.abort()
+    if (jobQueueActive()) await cancelQueuedSearch(job.id)
+    await this.jobs.finish(job.id, 'cancelled', { event: 'cancelled', data: { id: job.id } })
   }
+}
 
-  private emit(job: SearchJob, event: JobEvent) {
-    for (const listener of [...job.listeners]) listener(event)
-  }
-
-  private finish(job: SearchJob, status: JobStatus, event: JobEvent) {
-    if (job.status !== 'running') return
-    job.status = status
-    job.final = event
-    job.finishedAt = Date.now()
-    this.emit(job, event)
-    job.listeners.clear()
-  }
-
-  private sweep() {
-    const cutoff = Date.now() - FINISHED_JOB_TTL_MS
-    for (const [id, job] of this.jobs) if (job.finishedAt !== null && job.finishedAt < cutoff) this.jobs.delete(id)
-  }
+function defaultRegistry(): SearchJobRegistry {
+  const shared = jobQueueRedis()
+  if (!shared) return new MemorySearchJobs(FINISHED_JOB_TTL_MS)
+  return new RedisSearchJobs(shared.redis, shared.url, FINISHED_JOB_TTL_MS, () => answerWaitMs(jobQueueRedis()?.budgetMs ?? shared.budgetMs))
 }
 
 const services = new WeakMap<AppContext, SearchService>()
