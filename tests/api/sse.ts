@@ -6,7 +6,7 @@ export interface StreamEvent {
   data: unknown
 }
 
-function parseEventStream(text: string): StreamEvent[] {
+export function parseEventStream(text: string): StreamEvent[] {
   const events: StreamEvent[] = []
   for (const block of text.split('\n\n')) {
     let event = 'message'

@@ -52,7 +52,7 @@ afterAll(async () => {
 
 describe('two API instances on one PostgreSQL, Redis and bucket', () => {
   it('seeded the demo data once although both started at the same moment', async () => {
-    const seeded = [one, two].map((p) => p.output.join('').match(/Demo data: (\d+) users, (\d+) materials, (\d+) entries added/)!.slice(1).map(Number))
+    const seeded = [one, two].map((p) => p.output.join('').match(/Demo data: (\d+) users, (\d+) materials, (\d+) entries/)!.slice(1).map(Number))
     expect(seeded[0][0] + seeded[1][0]).toBe(DEMO_USERS.length)
     const shelves = await Promise.all([one, two].map((p) => api(p.url!, '/api/shelf', token.engineer)))
     expect(shelves[0].body.entries.length).toBeGreaterThan(3)

@@ -1,5 +1,5 @@
 export { searchService, SearchService, CACHE_CAPACITY, MAX_RUNNING_PER_USER, FINISHED_JOB_TTL_MS } from './service'
-export type { ApiSearchAnswer, JobEvent, JobStatus, SearchJob, SearchJobView, SearchOutcome } from './service'
+export type { ApiSearchAnswer, JobEvent, JobStatus, SearchJob, SearchOutcome } from './service'
 export { loadShelf, listShelfEntries } from './shelf'
 export type { ShelfSnapshot } from './shelf'
 export { SearchPool, sharedSearchPool, DEFAULT_POOL_SIZE } from './pool'

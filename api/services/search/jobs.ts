@@ -152,7 +152,7 @@ export class MemorySearchJobs implements SearchJobRegistry {
 const PREFIX = 'flexshelf:'
 const jobKey = (id: string) => `${PREFIX}search-job:${id}`
 const placesKey = (ownerId: number) => `${PREFIX}search-running:${ownerId}`
-export const SEARCH_JOB_EVENTS_CHANNEL = `${PREFIX}search-job-events`
+const SEARCH_JOB_EVENTS_CHANNEL = `${PREFIX}search-job-events`
 
 // each script reads and writes in one step, so two instances acting on one job or one user's
 // places at the same moment cannot both win; a job's event is published in the same step as
