@@ -32,8 +32,8 @@ export function evaluateFamily(family: FamilyDefinition, rawParams: unknown, opt
   if (!methodInfo) {
     throw new ValidationError([{ field: 'method', message: `unknown method "${method}" for ${family.id}; use one of ${family.methods.map((m) => m.id).join(', ')}` }])
   }
-  const { params, material, echo } = validateParams(family, rawParams, options)
-  const out = family.evaluate({ params, material, method })
+  const { params, material, wideBeam, echo } = validateParams(family, rawParams, options)
+  const out = family.evaluate({ params, material, method, wideBeam })
   assertFinite(family, method, out.curve.displacement, 'displacement')
   assertFinite(family, method, out.curve.force, 'force')
   if (out.curve.strain) assertFinite(family, method, out.curve.strain, 'strain')
@@ -53,6 +53,7 @@ export function evaluateFamily(family: FamilyDefinition, rawParams: unknown, opt
     metrics,
     warnings: out.warnings,
     source: `${methodInfo.label}: ${methodInfo.source}`,
+    ...(out.bending ? { bending: out.bending } : {}),
   }
 }
 

@@ -73,7 +73,7 @@ export const Family = z.object({
 })
 
 export const Material = z.object({
-  id: z.string(), name: z.string(), process: z.string(), modulus: z.number(), strainLimit: z.number(), density: z.number(), notes: z.string(), source: z.string(),
+  id: z.string(), name: z.string(), process: z.string(), modulus: z.number(), poissonRatio: z.number(), poissonRatioSource: z.string(), strainLimit: z.number(), density: z.number(), notes: z.string(), source: z.string(),
 })
 
 const EvaluationSchema = catalogValue<Evaluation>('an evaluation', ['family', 'method', 'params', 'material', 'curve', 'metrics', 'warnings', 'source'])
@@ -273,8 +273,9 @@ export const Datasheet = z.object({
   /** The saved configuration the sheet was made from, when it was. */
   configuration: z.object({ id: z.number().int(), name: z.string() }).nullable(),
   parameters: z.array(z.object({ key: z.string(), label: z.string(), value: z.number(), unit: z.string() })),
-  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number(), source: z.string() }),
-  method: z.object({ id: z.string(), label: z.string(), source: z.string() }),
+  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number(), poissonRatio: z.number(), source: z.string() }),
+  /** `bending`: the wide-beam rule as applied (catalog/mechanics/wide-beam.ts), null for a family that bends no beams. */
+  method: z.object({ id: z.string(), label: z.string(), source: z.string(), bending: z.string().nullable() }),
   curve: z.object({ axes, displacement: z.array(z.number()), force: z.array(z.number()), band: BandView, window: z.array(WindowOverlay), markers: z.array(CurveMarker) }),
   metrics: z.array(DatasheetMetric),
   verdict: z.object({ window: ForceWindowSchema, nominal: JudgementSchema, band: JudgementSchema }).nullable(),

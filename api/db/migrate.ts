@@ -9,6 +9,7 @@ import * as curation from './migrations/0002-curation'
 import * as savedConfigurationSettings from './migrations/0003-saved-configuration-settings'
 import * as accounts from './migrations/0004-accounts'
 import * as reportComparison from './migrations/0005-report-comparison'
+import * as materialPoissonRatio from './migrations/0006-material-poisson-ratio'
 
 const migrations: RunnableMigration<QueryInterface>[] = [
   { name: '0001-initial', up: initial.up, down: initial.down },
@@ -16,6 +17,7 @@ const migrations: RunnableMigration<QueryInterface>[] = [
   { name: '0003-saved-configuration-settings', up: savedConfigurationSettings.up, down: savedConfigurationSettings.down },
   { name: '0004-accounts', up: accounts.up, down: accounts.down },
   { name: '0005-report-comparison', up: reportComparison.up, down: reportComparison.down },
+  { name: '0006-material-poisson-ratio', up: materialPoissonRatio.up, down: materialPoissonRatio.down },
 ]
 
 export function createMigrator(sequelize: Sequelize) {

@@ -62,7 +62,7 @@ async function seedEntry(context: AppContext, transaction: Transaction, familyId
   const { ranges, problems } = rangesInsideFamily(familyId, demo.ranges)
   if (problems.length) return skip(problems.join('; '))
 
-  const materials = (await Material.findAll({ transaction })).map((m) => ({ id: m.id, name: m.name, modulus: m.modulus, strainLimit: m.strainLimit }))
+  const materials = (await Material.findAll({ transaction })).map((m) => ({ id: m.id, name: m.name, modulus: m.modulus, strainLimit: m.strainLimit, poissonRatio: m.poissonRatio }))
   let evaluation
   try {
     evaluation = evaluate(familyId, demo.defaultParams, { ranges, materials })
@@ -104,7 +104,7 @@ async function seedMaterialsIn(context: AppContext, transaction: Transaction): P
   for (const m of builtinMaterials) {
     const [, isNew] = await context.db.models.Material.findOrCreate({
       where: { id: m.id },
-      defaults: { id: m.id, name: m.name, process: m.process, modulus: m.modulus, strainLimit: m.strainLimit, density: m.density, notes: '', source: m.source },
+      defaults: { id: m.id, name: m.name, process: m.process, modulus: m.modulus, poissonRatio: m.poissonRatio, poissonRatioSource: m.poissonRatioSource, strainLimit: m.strainLimit, density: m.density, notes: '', source: m.source },
       transaction,
     })
     if (isNew) created++

@@ -296,7 +296,7 @@ function thePart(doc: Doc, sheet: Datasheet): void {
 
   heading(doc, 'Material', 30)
   const m = sheet.material
-  paragraph(doc, `${m.name}${m.id ? ` (${m.id})` : ''}: modulus ${fmt(m.modulus)} MPa, strain limit ${fmt(m.strainLimit * 100)} %.`)
+  paragraph(doc, `${m.name}${m.id ? ` (${m.id})` : ''}: modulus ${fmt(m.modulus)} MPa, Poisson\u2019s ratio ${fmt(m.poissonRatio)}, strain limit ${fmt(m.strainLimit * 100)} %.`)
   paragraph(doc, `Source: ${m.source}`, { size: 8, color: MUTED })
 
   heading(doc, 'Predicted curve', 300)
@@ -340,6 +340,7 @@ function judgement(doc: Doc, sheet: Datasheet): void {
   heading(doc, 'Method and source')
   paragraph(doc, `${sheet.method.label} (${sheet.method.id})`, { weight: 'semibold' })
   paragraph(doc, sheet.method.source, { size: 8 })
+  if (sheet.method.bending) paragraph(doc, sheet.method.bending, { size: 8 })
 
   if (sheet.warnings.length) {
     heading(doc, 'Warnings')

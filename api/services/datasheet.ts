@@ -88,10 +88,10 @@ export async function buildDatasheet(target: ConfigureTarget, input: Configurati
   const now = options.now ?? new Date()
   const method = family.methods.find((m) => m.id === evaluation.method)!
   const curated = evaluation.material.id ? target.materials.find((m) => m.id === evaluation.material.id) : undefined
-  const overridden = input.params.modulus !== undefined || input.params.strainLimit !== undefined
+  const overridden = input.params.modulus !== undefined || input.params.strainLimit !== undefined || input.params.poissonRatio !== undefined
   const materialSource = overridden
     ? `given with the configuration${curated ? `, overriding the curated ${curated.name} (${curated.source})` : ''}`
-    : curated?.source ?? 'built-in value'
+    : curated ? `${curated.source} ${curated.poissonRatioSource}` : 'built-in value'
 
   const cautions = mergeCautions(DATASHEET_CAUTIONS, family.cautions)
 
@@ -105,7 +105,7 @@ export async function buildDatasheet(target: ConfigureTarget, input: Configurati
     configuration: options.configuration ?? null,
     parameters: family.params.map((p) => ({ key: p.key, label: p.label, value: evaluation.params[p.key] as number, unit: p.unit })),
     material: { ...evaluation.material, source: materialSource },
-    method: { id: method.id, label: method.label, source: method.source },
+    method: { id: method.id, label: method.label, source: method.source, bending: evaluation.bending?.statement ?? null },
     curve: {
       axes: evaluation.curve.axes,
       displacement: evaluation.curve.displacement,

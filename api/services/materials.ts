@@ -8,6 +8,8 @@ export interface MaterialView {
   name: string
   process: string
   modulus: number
+  poissonRatio: number
+  poissonRatioSource: string
   strainLimit: number
   density: number
   notes: string
@@ -15,7 +17,7 @@ export interface MaterialView {
 }
 
 function toMaterialView(m: Material): MaterialView {
-  return { id: m.id, name: m.name, process: m.process, modulus: m.modulus, strainLimit: m.strainLimit, density: m.density, notes: m.notes, source: m.source }
+  return { id: m.id, name: m.name, process: m.process, modulus: m.modulus, poissonRatio: m.poissonRatio, poissonRatioSource: m.poissonRatioSource, strainLimit: m.strainLimit, density: m.density, notes: m.notes, source: m.source }
 }
 
 export async function listMaterials(context: AppContext, transaction?: Transaction): Promise<MaterialView[]> {

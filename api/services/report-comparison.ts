@@ -13,7 +13,7 @@ export interface ReportComparison extends CurveComparison {
   predictedMaterial: { id: string | null; name: string; modulus: number }
 }
 
-export type MaterialNumbers = Array<{ id: string; name: string; modulus: number; strainLimit: number }>
+export type MaterialNumbers = Array<{ id: string; name: string; modulus: number; strainLimit: number; poissonRatio?: number }>
 
 export function predictedMaterialOf(familyId: string, revision: Pick<EntryRevision, 'params'>, materials: MaterialNumbers) {
   const family = families.find((f) => f.id === familyId)

@@ -320,6 +320,8 @@ export async function adoptModulus(context: AppContext, actor: User, reportId: n
       process: baseMaterial.process,
       modulus: sig(fit.modulus),
       strainLimit: baseMaterial.strainLimit,
+      poissonRatio: baseMaterial.poissonRatio,
+      poissonRatioSource: `From ${baseMaterial.name}: ${baseMaterial.poissonRatioSource}`,
       density: baseMaterial.density,
       notes: `Calibrated for ${printer}; confirm on printed parts before relying on it, and recalibrate for a new printer, material lot or orientation.`,
       source: `Effective modulus fitted to test report ${report.id} on "${entry.name}" (revision ${revision.number}; printer ${printer}, material ${report.material}${report.lot ? `, lot ${report.lot}` : ''}): `
@@ -331,7 +333,7 @@ export async function adoptModulus(context: AppContext, actor: User, reportId: n
     })
     return created
   })
-  return { id: material.id, name: material.name, process: material.process, modulus: material.modulus, strainLimit: material.strainLimit, density: material.density, notes: material.notes, source: material.source }
+  return { id: material.id, name: material.name, process: material.process, modulus: material.modulus, poissonRatio: material.poissonRatio, poissonRatioSource: material.poissonRatioSource, strainLimit: material.strainLimit, density: material.density, notes: material.notes, source: material.source }
 }
 
 /** The reports waiting for review, each with its comparison. */

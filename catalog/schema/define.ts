@@ -20,6 +20,8 @@ export interface FamilyIdentity {
   cautions: string[]
   /** The method a configuration uses when none is asked for; the first method when left out. */
   defaultMethod?: string
+  /** The family bends beams: it takes `wideBeam` and its model states the rule it applied. */
+  bendsBeams?: boolean
   search?: FamilySearch
   designMap?: FamilyDesignMap
   tolerance?: FamilyTolerance

@@ -19,8 +19,8 @@ export function layoutOf(spec: Array<[key: string, modulusPower: 0 | 1 | 'boolea
 /** The record form of a fill, in the layout's key order (one scratch buffer per estimator). */
 function recordOf(layout: EstimateLayout, fill: FillFn, outside: string): EstimateFn {
   const scratch = new Float64Array(layout.keys.length)
-  return (params, modulus, strainLimit) => {
-    if (!fill(params, modulus, strainLimit, scratch)) throw new RangeError(outside)
+  return (params, modulus, strainLimit, bending) => {
+    if (!fill(params, modulus, strainLimit, scratch, bending)) throw new RangeError(outside)
     const out: Estimate = {}
     for (let i = 0; i < layout.keys.length; i++) {
       const v = scratch[i]

@@ -3,6 +3,7 @@
  * Units: lengths mm, forces N, moduli MPa, energies mJ, angles degrees at this boundary.
  */
 import type { Material } from '../materials/types'
+import type { BendingBasis, BendingMaterial, WideBeamMode } from '../mechanics/wide-beam'
 
 /** One numeric parameter of a family; the same record drives API validation and the web form. */
 export interface ParamSpec {
@@ -66,6 +67,8 @@ export interface ResolvedMaterial {
   name: string
   modulus: number
   strainLimit: number
+  /** Poisson's ratio; the wide-beam correction reads it (catalog/mechanics/wide-beam.ts). */
+  poissonRatio: number
 }
 
 export interface Evaluation {
@@ -78,6 +81,8 @@ export interface Evaluation {
   warnings: string[]
   /** Plain-language name of the method and its source, for the data sheet. */
   source: string
+  /** How the beams' bending modulus was taken (families that bend beams): the wide-beam rule applied. */
+  bending?: BendingBasis
 }
 
 /** What a family's model receives: validated numbers plus the resolved material. */
@@ -85,6 +90,8 @@ export interface ModelInput {
   params: Record<string, number>
   material: ResolvedMaterial
   method: string
+  /** 'auto' applies the wide-beam (plate) correction by the beam's proportions, 'off' is plain beam theory. */
+  wideBeam: WideBeamMode
 }
 
 /** What a family's model returns; the core adds family, params, material and method. */
@@ -92,6 +99,8 @@ export interface ModelOutput {
   curve: Curve
   metrics: Record<string, MetricValue>
   warnings: string[]
+  /** The wide-beam rule as applied (a family that bends beams states it). */
+  bending?: BendingBasis
 }
 
 export interface FamilyDefinition {
@@ -113,6 +122,8 @@ export interface FamilyDefinition {
   envelope: (params: Record<string, number>) => { x: number; y: number; z: number }
   /** Cautions shown with every result of the family (fatigue, creep). */
   cautions: string[]
+  /** True for a family that bends beams: it takes the `wideBeam` parameter ('auto' | 'off'). */
+  bendsBeams?: boolean
   /** How search and the design map estimate the family fast; without it, its fast method through evaluate. */
   search?: FamilySearch
   /** How the design map presents the family. */
@@ -148,13 +159,14 @@ export interface FamilyTolerance {
 // on hundreds of thousands of candidates (a family folder may carry one: FamilySearch).
 
 export type Estimate = Record<string, MetricValue>
-export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number) => Estimate
+/** `bending` carries Poisson's ratio and the wide-beam mode: the estimator takes its modulus through bendingModulus. */
+export type EstimateFn = (params: Record<string, number>, modulus: number, strainLimit: number, bending: BendingMaterial) => Estimate
 /**
  * Writes the metrics into `out` in the layout's slot order — NaN for an empty (null) metric,
  * 1/0 for a boolean — and returns false where the estimate does not apply (outside a table).
  * Search judges millions of candidates on these raw numbers without building records.
  */
-export type FillFn = (params: Record<string, number>, modulus: number, strainLimit: number, out: Float64Array) => boolean
+export type FillFn = (params: Record<string, number>, modulus: number, strainLimit: number, out: Float64Array, bending: BendingMaterial) => boolean
 
 /**
  * Metric keys in slot order, and how each depends on the modulus E at fixed geometry: 1 where it
@@ -197,3 +209,4 @@ export interface FastEstimator {
 }
 
 export type { Material }
+export type { BendingBasis, BendingMaterial, WideBeamMode }

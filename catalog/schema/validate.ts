@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { ValidationError, type FieldIssue } from '../errors'
 import { findBuiltinMaterial } from '../materials'
+import { DEFAULT_WIDE_BEAM, WIDE_BEAM_MODES, type WideBeamMode } from '../mechanics/wide-beam'
 import type { FamilyDefinition, ResolvedMaterial } from './types'
 
 /** Allowed ranges a librarian set on an entry: key → [min, max], inside the family's own. */
@@ -9,17 +10,27 @@ export type ParamRanges = Record<string, [number, number]>
 export interface ValidateOptions {
   ranges?: ParamRanges
   /** Materials known beyond the built-in ones (the API passes the curated list). */
-  materials?: Array<{ id: string; name: string; modulus: number; strainLimit: number }>
+  materials?: Array<{ id: string; name: string; modulus: number; strainLimit: number; poissonRatio?: number }>
 }
 
 export interface ValidatedParams {
   params: Record<string, number>
   material: ResolvedMaterial
+  /** The wide-beam mode ('auto' when not given; always 'off' for a family that bends no beams). */
+  wideBeam: WideBeamMode
   /** The input as given plus defaults, echoed in results. */
   echo: Record<string, number | string>
 }
 
 export const DEFAULT_MATERIAL_ID = 'petg'
+
+/**
+ * Poisson's ratio of a material the caller listed without one (a list made before the ratio
+ * existed): the built-in material's of the same id, else the default material's.
+ */
+export function poissonRatioOf(m: { id: string | null; poissonRatio?: number }): number {
+  return m.poissonRatio ?? (m.id ? findBuiltinMaterial(m.id)?.poissonRatio : undefined) ?? findBuiltinMaterial(DEFAULT_MATERIAL_ID)!.poissonRatio
+}
 
 function formatNumber(v: number): string {
   return Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(6)))
@@ -49,6 +60,12 @@ export function paramsSchema(family: FamilyDefinition, ranges?: ParamRanges) {
   shape.strainLimit = z.number({ error: 'strainLimit must be a number (a fraction, 0.02 = 2 %)' })
     .refine((v) => Number.isFinite(v) && v > 0 && v <= 0.5, { message: 'strainLimit must be a fraction above 0 and at most 0.5 (0.02 = 2 %)' })
     .optional()
+  shape.poissonRatio = z.number({ error: "poissonRatio must be a number (Poisson's ratio, 0 to 0.49)" })
+    .refine((v) => Number.isFinite(v) && v >= 0 && v <= 0.49, { message: "poissonRatio must be between 0 and 0.49" })
+    .optional()
+  if (family.bendsBeams) {
+    shape.wideBeam = z.enum(WIDE_BEAM_MODES, { error: `wideBeam must be one of ${WIDE_BEAM_MODES.map((m) => `"${m}"`).join(', ')}` }).optional()
+  }
   return z.strictObject(shape, { error: (iss) => iss.code === 'unrecognized_keys' ? `unknown parameter` : 'parameters must be a JSON object' })
 }
 
@@ -92,21 +109,26 @@ export function validateParams(family: FamilyDefinition, raw: unknown, options: 
   if (materialId !== undefined) {
     const known = options.materials?.find((m) => m.id === materialId) ?? findBuiltinMaterial(materialId)
     if (!known) issues.push({ field: 'material', message: `unknown material "${materialId}"` })
-    else material = { id: known.id, name: known.name, modulus: known.modulus, strainLimit: known.strainLimit }
+    else material = { id: known.id, name: known.name, modulus: known.modulus, strainLimit: known.strainLimit, poissonRatio: poissonRatioOf(known) }
   }
   if (issues.length) throw new ValidationError(issues)
 
-  const base = material ?? { id: null, name: 'Custom material', modulus: 0, strainLimit: findBuiltinMaterial(DEFAULT_MATERIAL_ID)!.strainLimit }
-  const overridden = given.modulus !== undefined || given.strainLimit !== undefined
+  const fallback = findBuiltinMaterial(DEFAULT_MATERIAL_ID)!
+  const base = material ?? { id: null, name: 'Custom material', modulus: 0, strainLimit: fallback.strainLimit, poissonRatio: fallback.poissonRatio }
+  const overridden = given.modulus !== undefined || given.strainLimit !== undefined || given.poissonRatio !== undefined
   const resolved: ResolvedMaterial = {
     id: base.id,
     name: overridden && base.id ? `${base.name} (overridden)` : base.name,
     modulus: (given.modulus as number | undefined) ?? base.modulus,
     strainLimit: (given.strainLimit as number | undefined) ?? base.strainLimit,
+    poissonRatio: (given.poissonRatio as number | undefined) ?? base.poissonRatio,
   }
+  const wideBeam: WideBeamMode = family.bendsBeams ? ((given.wideBeam as WideBeamMode | undefined) ?? DEFAULT_WIDE_BEAM) : 'off'
   const echo: Record<string, number | string> = { ...params }
   if (resolved.id) echo.material = resolved.id
   if (given.modulus !== undefined) echo.modulus = given.modulus as number
   if (given.strainLimit !== undefined) echo.strainLimit = given.strainLimit as number
-  return { params, material: resolved, echo }
+  if (given.poissonRatio !== undefined) echo.poissonRatio = given.poissonRatio as number
+  if (family.bendsBeams) echo.wideBeam = wideBeam
+  return { params, material: resolved, wideBeam, echo }
 }

@@ -12,6 +12,7 @@
  * built only for the few candidates the engine keeps. An estimator without a raw-number form
  * is judged on records by `scoreRecords`, as before.
  */
+import type { BendingMaterial } from '../mechanics/wide-beam'
 import { MODULUS_RANGE } from '../tolerance/corners'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
 import { MARGIN_LIMIT, scoreBand, sideMargin, strainBasis, strainHolds, type CompiledWindow, type StrainBasis } from '../window'
@@ -26,6 +27,8 @@ export interface CandidateContext {
   estimator: FastEstimator
   modulus: number
   strainLimit: number
+  /** Poisson's ratio and wide-beam mode the estimator bends its beams with (catalog/mechanics/wide-beam.ts). */
+  bending: BendingMaterial
   tolerance: ManufacturingTolerance
   compiled: CompiledWindow
   footprint: ForceWindow['footprint']
@@ -108,7 +111,7 @@ export function scoreRecords(ctx: CandidateContext, params: Record<string, numbe
   }
   let nominal: Estimate
   try {
-    nominal = ctx.estimator.estimate(params, ctx.modulus, ctx.strainLimit)
+    nominal = ctx.estimator.estimate(params, ctx.modulus, ctx.strainLimit, ctx.bending)
   } catch {
     return rejected('model', -Infinity, fpMargin)
   }
@@ -130,7 +133,7 @@ export function scoreRecords(ctx: CandidateContext, params: Record<string, numbe
       if (ts === 0 && es === 0) continue
       const E = Math.min(MODULUS_RANGE[1], Math.max(MODULUS_RANGE[0], ctx.modulus * (1 + es * dE)))
       try {
-        fold(keys, band, ctx.estimator.estimate(shifted, E, ctx.strainLimit))
+        fold(keys, band, ctx.estimator.estimate(shifted, E, ctx.strainLimit, ctx.bending))
       } catch {
         return rejected('model', -Infinity, fpMargin)
       }
@@ -441,7 +444,7 @@ export class CandidateJudge {
 
   private estimate(params: Record<string, number>, out: Float64Array): boolean {
     try {
-      return this.fill!(params, this.ctx.modulus, this.ctx.strainLimit, out)
+      return this.fill!(params, this.ctx.modulus, this.ctx.strainLimit, out, this.ctx.bending)
     } catch {
       return false
     }

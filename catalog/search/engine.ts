@@ -8,6 +8,8 @@
  */
 import { families as registry } from '../registry'
 import { builtinMaterials } from '../materials'
+import { DEFAULT_WIDE_BEAM } from '../mechanics/wide-beam'
+import { poissonRatioOf } from '../schema/validate'
 import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'
 import { resolveTolerance } from '../tolerance'
@@ -97,6 +99,8 @@ function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): C
     estimator: estimatorFor(family),
     modulus: material.modulus,
     strainLimit: material.strainLimit,
+    // the default wide-beam rule, as the exact check's evaluate applies it
+    bending: { poissonRatio: poissonRatioOf(material), wideBeam: DEFAULT_WIDE_BEAM },
     tolerance: resolveTolerance(window.tolerance),
     compiled,
     footprint: window.footprint,

@@ -43,7 +43,7 @@ export function estimatorFor(family: FamilyDefinition): FastEstimator {
     method,
     reproduces: method,
     exact: true,
-    estimate: (params, modulus, strainLimit) =>
-      family.evaluate({ params, material: { id: null, name: '', modulus, strainLimit }, method }).metrics,
+    estimate: (params, modulus, strainLimit, bending) =>
+      family.evaluate({ params, material: { id: null, name: '', modulus, strainLimit, poissonRatio: bending.poissonRatio }, method, wideBeam: family.bendsBeams ? bending.wideBeam : 'off' }).metrics,
   }
 }

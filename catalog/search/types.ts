@@ -31,6 +31,8 @@ export interface SearchMaterial {
   name: string
   modulus: number
   strainLimit: number
+  /** Poisson's ratio; when left out, the built-in material's of the same id (poissonRatioOf). */
+  poissonRatio?: number
 }
 
 export interface SearchProgress {

@@ -69,6 +69,11 @@ export function toleranceBand(family: FamilyDefinition | string, rawParams: unkn
     // Corners may leave the entry's allowed ranges (the part is printed off-size), not the model's.
     const params: Record<string, number | string> = { ...corner.params, modulus: corner.modulusValue, strainLimit: nominal.material.strainLimit }
     if (nominal.material.id) params.material = nominal.material.id
+    // the corners bend as the nominal part does: its Poisson's ratio and wide-beam mode
+    if (def.bendsBeams) {
+      params.poissonRatio = nominal.material.poissonRatio
+      if (typeof nominal.params.wideBeam === 'string') params.wideBeam = nominal.params.wideBeam
+    }
     try {
       corners.push({ thickness: corner.thickness, modulus: corner.modulus, params, evaluation: evaluateFamily(def, params, cornerOptions) })
     } catch (e) {

@@ -62,6 +62,9 @@ export interface EstimatorBenchRow {
   bandedPerSecond: number
 }
 
+/** PETG's Poisson's ratio under the default wide-beam rule. */
+const PETG_BENDING = { poissonRatio: 0.38, wideBeam: 'auto' } as const
+
 function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b)
   const mid = sorted.length >> 1
@@ -92,7 +95,7 @@ function timeBanded(familyId: string): number {
   const window = parseWindow({ kind: family.kind })
   const compiled = compileWindow(window)
   const judge = new CandidateJudge({
-    family, estimator: estimatorFor(family), modulus: 2000, strainLimit: 0.03, tolerance: resolveTolerance(window.tolerance), compiled, footprint: undefined,
+    family, estimator: estimatorFor(family), modulus: 2000, strainLimit: 0.03, bending: PETG_BENDING, tolerance: resolveTolerance(window.tolerance), compiled, footprint: undefined,
     walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
   }, [...compiled.metrics, 'bistable'])
   const pass = () => {
@@ -122,11 +125,11 @@ function timeEstimator(familyId: string): EstimatorBenchRow | null {
   const params = { ...base }
   let sink = 0
   const n = 200000
-  for (let i = 0; i < 2000; i++) estimator.estimate(params, 2000, 0.02)
+  for (let i = 0; i < 2000; i++) estimator.estimate(params, 2000, 0.02, PETG_BENDING)
   const t0 = performance.now()
   for (let i = 0; i < n; i++) {
     params[lengthKey] = base[lengthKey] * (1 + 0.001 * (i % 7))
-    const e = estimator.estimate(params, 2000 + (i % 3), 0.02)
+    const e = estimator.estimate(params, 2000 + (i % 3), 0.02, PETG_BENDING)
     sink += typeof e.safetyFactor === 'number' ? e.safetyFactor : 0
   }
   const s = (performance.now() - t0) / 1000

@@ -115,8 +115,10 @@ describe('POST /api/entries/:id/check', () => {
 
   describe('for a parallel guide (linear method)', () => {
     it('answers the Roark stiffness and a band that follows the cube of the wall thickness', async () => {
-      const res = await check(ids.guide, { params: { length: 20, thickness: 0.8, depth: 6, material: 'petg' }, method: 'linear', tolerance: { thickness: 0.05, modulus: 0.1 } })
+      // wideBeam 'off': Roark's plain beam theory, at the nominal point and every corner (the plate factor: tests/catalog/mechanics)
+      const res = await check(ids.guide, { params: { length: 20, thickness: 0.8, depth: 6, material: 'petg', wideBeam: 'off' }, method: 'linear', tolerance: { thickness: 0.05, modulus: 0.1 } })
       expect(res.status, JSON.stringify(res.body)).toBe(200)
+      expect(res.body.evaluation.bending.factor).toBe(1)
       // Roark 7th ed., fixed-guided beam k = 12EI/L³, two blades: k = 24·E·(b·t³/12)/L³ with E = 2000 MPa (PETG)
       const E = res.body.evaluation.material.modulus
       const expected = (24 * E * ((6 * 0.8 ** 3) / 12)) / 20 ** 3
@@ -319,7 +321,10 @@ describe('GET /api/entries/:id/datasheet', () => {
     expect(sheet.parameters.find((p: { key: string }) => p.key === 'thickness')).toEqual({ key: 'thickness', label: 'Beam thickness', value: 0.8, unit: 'mm' })
     expect(sheet.material).toMatchObject({ id: 'petg', modulus: 2000, strainLimit: 0.02 })
     expect(sheet.material.source).toMatch(/MDPI/)
-    expect(sheet.method).toEqual({ ...getFamily('bistable-beam').methods.find((m) => m.id === 'closed-form') })
+    const { bending, ...method } = sheet.method
+    expect(method).toEqual({ ...getFamily('bistable-beam').methods.find((m) => m.id === 'closed-form') })
+    // the wide-beam rule as applied, for "How this is computed"
+    expect(bending).toMatch(/^(Wide|Narrow) beam \(beams: depth [\d.]+ × thickness/)
     expect(sheet.metrics.find((m: { key: string }) => m.key === 'peakForce')).toMatchObject({ label: 'Peak force', unit: 'N' })
     expect(sheet.verdict.nominal.verdict).toBe('inside')
     expect(sheet.printability.basis).toMatch(/common practice/)

@@ -25,7 +25,7 @@ async function pragma(sequelize: Sequelize, name: string, transaction?: Transact
 
 const EXPECTED_TABLES: Record<string, string[]> = {
   Users: ['id', 'email', 'passwordHash', 'displayName', 'role', 'tokenVersion', 'passwordMustChange', 'carriedSessionJti', 'oidcIssuer', 'oidcSubject', 'createdAt', 'updatedAt'],
-  Materials: ['id', 'name', 'process', 'modulus', 'strainLimit', 'density', 'notes', 'source', 'createdAt', 'updatedAt'],
+  Materials: ['id', 'name', 'process', 'modulus', 'poissonRatio', 'poissonRatioSource', 'strainLimit', 'density', 'notes', 'source', 'createdAt', 'updatedAt'],
   Entries: ['id', 'familyId', 'name', 'summary', 'tags', 'status', 'defaultParams', 'ranges', 'materials', 'notes', 'ownerId', 'currentRevisionId', 'proposalForId', 'createdAt', 'updatedAt'],
   EntryRevisions: ['id', 'entryId', 'number', 'params', 'ranges', 'method', 'curve', 'metrics', 'warnings', 'createdById', 'createdAt'],
   TestReports: ['id', 'entryId', 'revisionId', 'uploaderId', 'reviewerId', 'filePath', 'originalName', 'photoPath', 'printer', 'material', 'lot', 'orientation', 'testSpeed', 'notes', 'reviewNote', 'reviewedAt', 'status', 'measuredCurve', 'comparison', 'comparisonProblem', 'createdAt', 'updatedAt'],
@@ -49,7 +49,7 @@ describe('migrations', () => {
     afterAll(() => sequelize.close())
 
     it('applies every migration in order', () => {
-      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings', '0004-accounts', '0005-report-comparison'])
+      expect(applied).toEqual(['0001-initial', '0002-curation', '0003-saved-configuration-settings', '0004-accounts', '0005-report-comparison', '0006-material-poisson-ratio'])
     })
 
     it('produces exactly the expected tables and columns', async () => {
@@ -102,7 +102,7 @@ describe('every SQLite connection', () => {
     it('refuses a row that points at a missing user, and keeps nothing of the transaction', async () => {
       const { Entry, Material } = db.models
       const write = db.write(async (transaction) => {
-        await Material.create({ id: 'half-written', name: 'x', process: 'FDM', modulus: 1, strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
+        await Material.create({ id: 'half-written', name: 'x', process: 'FDM', modulus: 1, poissonRatio: 0.35, poissonRatioSource: 'test', strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
         await Entry.create({ familyId: 'bistable-beam', name: 'orphan', summary: '', tags: [], status: 'draft', defaultParams: {}, ranges: {}, materials: [], ownerId: 424242, currentRevisionId: null }, { transaction })
       })
       await expect(write).rejects.toThrow(onPostgres ? /violates foreign key constraint/ : /FOREIGN KEY constraint failed/)
@@ -125,7 +125,7 @@ describe('the write queue', () => {
         if (onPostgres) expect(options.isolationLevel).toBe(Transaction.ISOLATION_LEVELS.SERIALIZABLE)
         else expect(options.type).toBe(Transaction.TYPES.IMMEDIATE)
         const count = await Material.count({ transaction })
-        await Material.create({ id: `queued-${i}`, name: `queued ${count}`, process: 'FDM', modulus: 1, strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
+        await Material.create({ id: `queued-${i}`, name: `queued ${count}`, process: 'FDM', modulus: 1, poissonRatio: 0.35, poissonRatioSource: 'test', strainLimit: 0.01, density: 1, source: 'test' }, { transaction })
         running--
       })))
       expect(most).toBe(1)

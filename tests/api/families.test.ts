@@ -147,10 +147,10 @@ describe('POST /api/families/:id/evaluate', () => {
 
   describe('as an engineer, with a material only the database knows', () => {
     it('resolves it', async () => {
-      await t.context.db.models.Material.create({ id: 'petg-lot-7', name: 'PETG lot 7 (calibrated)', process: 'FDM', modulus: 1850, strainLimit: 0.018, density: 1.27, source: 'coupon test' })
+      await t.context.db.models.Material.create({ id: 'petg-lot-7', name: 'PETG lot 7 (calibrated)', process: 'FDM', modulus: 1850, poissonRatio: 0.41, poissonRatioSource: 'coupon test', strainLimit: 0.018, density: 1.27, source: 'coupon test' })
       const res = await request(t.app).post(`/api/families/${families[0].id}/evaluate`).set(bearer(token)).send({ params: { material: 'petg-lot-7' } })
       expect(res.status).toBe(200)
-      expect(res.body.material).toEqual({ id: 'petg-lot-7', name: 'PETG lot 7 (calibrated)', modulus: 1850, strainLimit: 0.018 })
+      expect(res.body.material).toEqual({ id: 'petg-lot-7', name: 'PETG lot 7 (calibrated)', modulus: 1850, strainLimit: 0.018, poissonRatio: 0.41 })
     })
   })
 })

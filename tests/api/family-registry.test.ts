@@ -128,7 +128,7 @@ describe('a family registered from its folder', () => {
 
   it('is mapped by the design map with its folder\u2019s estimator', () => {
     const map = computeDesignMap({
-      familyId: ID, params: { length: 20, thickness: 1, depth: 6 }, modulus: PETG.modulus, strainLimit: PETG.strainLimit,
+      familyId: ID, params: { length: 20, thickness: 1, depth: 6 }, modulus: PETG.modulus, strainLimit: PETG.strainLimit, bending: { poissonRatio: 0.38, wideBeam: 'auto' },
       x: { key: 'length', min: 10, max: 40 }, y: { key: 'thickness', min: 0.6, max: 2 }, window: null, size: 8,
     })
     expect(map.values.stiffness).toHaveLength(64)

@@ -124,6 +124,10 @@ describe('migrating to the latest schema', () => {
         expect(saved?.params).toEqual({ length: 14 })
         const report = await models.TestReport.findByPk(31)
         expect(report?.measuredCurve).toEqual({ displacement: [0, 1], force: [0, 1.8] })
+        // 0006: a material that is neither built in nor calibrated from one gets 0.35, named as common practice
+        const material = await models.Material.findByPk('petg-lot-3')
+        expect(material?.poissonRatio).toBe(0.35)
+        expect(material?.poissonRatioSource).toMatch(/common practice/)
       })
     }
   })

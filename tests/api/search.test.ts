@@ -139,7 +139,7 @@ describe('POST /api/search', () => {
     }
 
     it('knows the curated materials, not only the built-in ones', async () => {
-      await t.context.db.models.Material.create({ id: 'petg-cf', name: 'PETG-CF (FDM)', process: 'FDM', modulus: 3800, strainLimit: 0.012, density: 1.3, notes: '', source: 'test material' })
+      await t.context.db.models.Material.create({ id: 'petg-cf', name: 'PETG-CF (FDM)', process: 'FDM', modulus: 3800, poissonRatio: 0.38, poissonRatioSource: 'test material', strainLimit: 0.012, density: 1.3, notes: '', source: 'test material' })
       const res = await request(t.app).post('/api/search').set(bearer(engineer)).send({ kind: 'bistable', peakForce: { min: 1 }, materials: ['petg-cf'] })
       expect(res.status, JSON.stringify(res.body)).toBe(200)
       await t.context.db.models.Material.destroy({ where: { id: 'petg-cf' } })

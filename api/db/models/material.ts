@@ -7,6 +7,10 @@ export class Material extends Model<InferAttributes<Material>, InferCreationAttr
   declare name: string
   declare process: string
   declare modulus: number
+  /** Poisson's ratio (the wide-beam correction reads it). */
+  declare poissonRatio: number
+  /** Where Poisson's ratio comes from. */
+  declare poissonRatioSource: string
   declare strainLimit: number
   declare density: number
   declare notes: CreationOptional<string>
@@ -22,6 +26,8 @@ export class Material extends Model<InferAttributes<Material>, InferCreationAttr
         name: { type: DataTypes.STRING(120), allowNull: false },
         process: { type: DataTypes.STRING(40), allowNull: false },
         modulus: { type: DataTypes.FLOAT, allowNull: false },
+        poissonRatio: { type: DataTypes.FLOAT, allowNull: false },
+        poissonRatioSource: { type: DataTypes.TEXT, allowNull: false },
         strainLimit: { type: DataTypes.FLOAT, allowNull: false },
         density: { type: DataTypes.FLOAT, allowNull: false },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },

@@ -38,7 +38,7 @@ export async function loadShelf(context: AppContext): Promise<ShelfSnapshot> {
     ranges: e.ranges,
     status: 'released',
   }))
-  const materials: SearchMaterial[] = (await listMaterials(context)).map((m) => ({ id: m.id, name: m.name, modulus: m.modulus, strainLimit: m.strainLimit }))
+  const materials: SearchMaterial[] = (await listMaterials(context)).map((m) => ({ id: m.id, name: m.name, modulus: m.modulus, strainLimit: m.strainLimit, poissonRatio: m.poissonRatio }))
   const revisions = rows.map((e) => e.currentRevisionId ?? null)
   const version = createHash('sha1').update(JSON.stringify([entries, revisions, materials])).digest('hex')
   return { entries, materials, version }

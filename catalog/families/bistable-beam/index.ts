@@ -16,6 +16,7 @@ export const bistableBeam = defineFamily({
   search: { estimator },
   tolerance: { estimateAllowance },
   designMap: { sweep: ['apexHeight', 'thickness'] },
+  bendsBeams: true,
   cautions: [
     'These are estimates from beam theory for the nominal geometry; printed beams vary in thickness (force grows with its cube), layer bonding and modulus. Confirm the snap force and the second position on printed parts before relying on them.',
     'Polymers creep: a switch held in its second position, or pressed for long, relaxes and loses snap force, faster when warm; a part near the bistability limit may stop holding its second position.',

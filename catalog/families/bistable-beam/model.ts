@@ -1,3 +1,4 @@
+import { bendingBasis } from '../../mechanics/wide-beam'
 import { ValidationError } from '../../errors'
 import type { AxisSpec, MethodInfo, MetricSpec, MetricValue, ModelInput, ModelOutput } from '../../schema/types'
 import { nonlinearFeMethod, peakStrainMetric, strainLimitMetric, strainSafetyMetric } from '../../schema/define'
@@ -98,6 +99,9 @@ function closedFormWorkToValley(q: number, valleyAt: number): number {
 
 export function evaluate(input: ModelInput): ModelOutput {
   const { params: p, material, method } = input
+  // the beams bend as plate strips when deep for their thickness (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam: input.wideBeam }, p.depth, p.thickness, 'beams')
+  const E = bending.modulus
   if (method === 'closed-form' && p.postLength > 0) {
     // compliant posts let the beam ends move and can remove bistability altogether; a rigid-end
     // estimate would be quietly wrong, so it is refused rather than returned with a warning
@@ -106,9 +110,9 @@ export function evaluate(input: ModelInput): ModelOutput {
   let x: number[], f: number[], strain: number[], m: SnapMetrics
   let folds: number[] = []
   if (method === 'closed-form') {
-    ({ x, f, strain, m } = closedForm(p, material.modulus))
+    ({ x, f, strain, m } = closedForm(p, E))
   } else {
-    const fe = solveBistableCurve({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength, modulus: material.modulus })
+    const fe = solveBistableCurve({ span: p.span, apexHeight: p.apexHeight, thickness: p.thickness, depth: p.depth, postLength: p.postLength, modulus: E })
     x = fe.displacement
     f = fe.force
     strain = fe.strain
@@ -124,11 +128,11 @@ export function evaluate(input: ModelInput): ModelOutput {
   // the largest force is read off the curve itself, not the snap metrics: it need not be the first peak
   const computed: Record<string, MetricValue> = { secondSnapPosition: secondSnap, largestForce: Math.max(...f) }
   for (const spec of metrics) out[spec.key] = spec.key in computed ? computed[spec.key] : reported[spec.key]
-  const warnings = warningsFor(p, m, maxStrain, material.strainLimit, material.modulus, method)
+  const warnings = warningsFor(p, m, maxStrain, material.strainLimit, E, method)
   if (secondSnap !== null) {
     warnings.push(`Second snap: the force–displacement path folds back at ${Number(secondSnap.toPrecision(3))} mm (${Number((secondSnap / p.apexHeight).toFixed(2))} × the apex height); pushed to a set position the shuttle jumps there, a second click the user will feel. The curve shows the jump; the side posts cause it, and a slightly different post length or print can move or remove it.`)
   }
-  return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings }
+  return { curve: { displacement: x, force: f, strain, axes }, metrics: out, warnings, bending }
 }
 
 function pct(v: number): string {

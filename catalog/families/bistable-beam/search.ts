@@ -3,6 +3,7 @@
  * into the slots, without a record per candidate; within the table's measured error of the
  * nonlinear-fe method (tolerance.ts states it per metric for confirmations).
  */
+import { bendingModulus } from '../../mechanics/wide-beam'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { fillFromTable } from './table'
 import { bistableTable } from './table-store'
@@ -15,7 +16,7 @@ const LAYOUT = layoutOf([
 ])
 
 export const estimator = dedicatedEstimator('table', 'nonlinear-fe', false, LAYOUT,
-  (p, E, limit, out) => fillFromTable(bistableTable(), p.span, p.apexHeight, p.thickness, p.depth, p.postLength, E, limit, out),
+  (p, E, limit, out, bending) => fillFromTable(bistableTable(), p.span, p.apexHeight, p.thickness, p.depth, p.postLength, bendingModulus(E, bending, p.depth, p.thickness), limit, out),
   'outside the precomputed bistable table',
-  // forces ∝ depth (the table's force scale E·b·t³·h/L³); positions, strain and bistability do not depend on it
+  // forces ∝ depth (the table's force scale E·b·t³·h/L³; the wide-beam factor only rises with depth); positions, strain and bistability do not depend on it
   ['depth'])

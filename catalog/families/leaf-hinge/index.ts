@@ -12,6 +12,7 @@ export const leafHinge = defineFamily({
   defaultMethod: 'nonlinear-fe',
   search: { estimator },
   designMap: { sweep: ['length', 'thickness'] },
+  bendsBeams: true,
   cautions: [
     'The blade strain is checked against the material\u2019s strain limit shown with the result; a hinge opened and closed many times fatigues at strains far below its one-off limit, so keep a margin, and prefer tough materials (PP, PETG, PA) over brittle ones.',
     'Polymers creep: a hinge held bent (a lid kept open) takes a set and its return force fades, faster when warm.',

@@ -5,6 +5,7 @@
  * blade's mid-point, so that in small rotations M = (EI/L)·θ for any link length (linear beam
  * theory: the bending moment along the blade averages to its mid-point value).
  */
+import { bendingBasis } from '../../mechanics/wide-beam'
 import { SolverError } from '../../errors'
 import type { MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
 import { nonlinearFeMethod, peakStrainMetric, ROTATION_AXES, strainSafetyMetric } from '../../schema/define'
@@ -316,7 +317,10 @@ export function geometryOf(params: Record<string, number>): HingeGeometry {
   return { length: params.length, thickness: params.thickness, depth: params.depth, linkLength: params.linkLength }
 }
 
-export function evaluate({ params, material, method }: ModelInput): ModelOutput {
-  if (method === 'nonlinear-fe') return nonlinearFe(geometryOf(params), material.modulus, material.strainLimit)
-  return prbm(geometryOf(params), material.modulus, material.strainLimit)
+export function evaluate({ params, material, method, wideBeam }: ModelInput): ModelOutput {
+  // the leaf bends as a plate strip when deep for its thickness (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam }, params.depth, params.thickness, 'leaf')
+  const E = bending.modulus
+  if (method === 'nonlinear-fe') return { ...nonlinearFe(geometryOf(params), E, material.strainLimit), bending }
+  return { ...prbm(geometryOf(params), E, material.strainLimit), bending }
 }

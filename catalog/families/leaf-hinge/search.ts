@@ -1,5 +1,6 @@
 /** Search's fast estimate of the leaf hinge (a test holds it to the family's model). */
 import { LRUCache } from 'lru-cache'
+import { bendingModulus, type BendingMaterial } from '../../mechanics/wide-beam'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { evaluate as leafHingeModel } from './model'
 
@@ -19,11 +20,12 @@ const LEAF_REFERENCE_MODULUS = 1000
  */
 const leafMemo = new LRUCache<string, Float64Array>({ max: LEAF_MEMO_LIMIT })
 const LEAF_LAYOUT = layoutOf([['rotationalStiffness', 1], ['maxRotation', 0], ['pivotDrift', 0], ['maxStrain', 0], ['safetyFactor', 0]])
-function leafHingeFill(p: Record<string, number>, E: number, limit: number, out: Float64Array): boolean {
+function leafHingeFill(p: Record<string, number>, modulus: number, limit: number, out: Float64Array, bending: BendingMaterial): boolean {
+  const E = bendingModulus(modulus, bending, p.depth, p.thickness) // the model's wide-beam rule
   const key = `${p.length}|${p.thickness}|${p.linkLength}|${limit}`
   let unit = leafMemo.get(key)
   if (!unit) {
-    const m = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit }, method: 'prbm' }).metrics
+    const m = leafHingeModel({ params: { ...p, depth: 1 }, material: { id: null, name: '', modulus: LEAF_REFERENCE_MODULUS, strainLimit: limit, poissonRatio: 0 }, method: 'prbm', wideBeam: 'off' }).metrics
     unit = Float64Array.from(LEAF_LAYOUT.keys, (k) => (typeof m[k] === 'number' ? (m[k] as number) : NaN))
     leafMemo.set(key, unit)
   }

@@ -12,6 +12,7 @@ export const notchHinge = defineFamily({
   defaultMethod: 'paros-weisbord',
   search: { estimator },
   designMap: { sweep: ['radius', 'neckThickness'] },
+  bendsBeams: true,
   cautions: [
     'The neck strain is checked against the material\u2019s strain limit shown with the result; a hinge cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',
     'Polymers creep: a notch held bent relaxes and takes a set, faster when warm, so a hinge that must return to zero should not be parked under load.',

@@ -3,6 +3,7 @@
  * hinges", Machine Design 37:151–156, 1965 (the same integral in Lobontiu, Compliant
  * Mechanisms: Design of Flexure Hinges, CRC 2003), full and thin-neck forms.
  */
+import { bendingBasis } from '../../mechanics/wide-beam'
 import type { MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
 import { nonlinearFeMethod, peakStrainMetric, ROTATION_AXES, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, sampleAt, strainLimitedStop, type Frame, type FrameElement } from '../../solvers'
@@ -221,8 +222,11 @@ function nonlinearFe(params: Record<string, number>, modulus: number, strainLimi
   }
 }
 
-export function evaluate({ params, material, method }: ModelInput): ModelOutput {
-  if (method === 'nonlinear-fe') return nonlinearFe(params, material.modulus, material.strainLimit)
-  if (method === 'paros-weisbord-simplified') return closedForm(params, material.modulus, material.strainLimit, true)
-  return closedForm(params, material.modulus, material.strainLimit, false)
+export function evaluate({ params, material, method, wideBeam }: ModelInput): ModelOutput {
+  // the neck bends as a plate strip when the hinge is deep for its neck (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam }, params.depth, params.neckThickness, 'neck')
+  const E = bending.modulus
+  if (method === 'nonlinear-fe') return { ...nonlinearFe(params, E, material.strainLimit), bending }
+  if (method === 'paros-weisbord-simplified') return { ...closedForm(params, E, material.strainLimit, true), bending }
+  return { ...closedForm(params, E, material.strainLimit, false), bending }
 }

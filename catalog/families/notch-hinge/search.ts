@@ -1,4 +1,5 @@
 /** Search's fast estimate of the notch hinge: the Paros–Weisbord compliance on raw numbers (a test holds it to the family's evaluate). */
+import { bendingModulus } from '../../mechanics/wide-beam'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { neckStrain, parosWeisbordCompliance, rotationRange } from './model'
 
@@ -6,7 +7,8 @@ const DEG = 180 / Math.PI
 
 export const estimator = dedicatedEstimator('paros-weisbord', 'paros-weisbord', true,
   layoutOf([['rotationalStiffness', 1], ['maxRotation', 0], ['maxStrain', 0], ['safetyFactor', 0]]),
-  (p, E, limit, out) => {
+  (p, material, limit, out, bending) => {
+    const E = bendingModulus(material, bending, p.depth, p.neckThickness) // the model's wide-beam rule
     // compliance ∝ 1/E and the limit moment ∝ E: the rotation range and the strain do not depend on E
     const compliance = parosWeisbordCompliance(E, p.depth, p.radius, p.neckThickness)
     const range = rotationRange(compliance, E, p.depth, p.neckThickness, limit)

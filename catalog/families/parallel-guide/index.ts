@@ -12,6 +12,7 @@ export const parallelGuide = defineFamily({
   defaultMethod: 'nonlinear-fe',
   search: { estimator },
   designMap: { sweep: ['length', 'thickness'] },
+  bendsBeams: true,
   cautions: [
     'The blade strain is checked against the material\u2019s strain limit shown with the result; a guide cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',
     'Polymers creep: a stage held off its rest position drifts and the guide takes a set, faster when warm.',

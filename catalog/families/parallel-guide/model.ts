@@ -4,6 +4,7 @@
  * fixed-guided beam k = 12EI/L³, two in parallel; parasitic shortening u = (3/5)δ²/L from the
  * beam constraint model of Awtar, Slocum & Sevincer, J. Mechanical Design 129:625–639, 2007.
  */
+import { bendingBasis } from '../../mechanics/wide-beam'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
 import { nonlinearFeMethod, peakStrainMetric, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, meshStraight, rectangleSection, sampleAt, strainLimitedStop, type Frame, type PathResult } from '../../solvers'
@@ -177,7 +178,10 @@ function nonlinearFe(params: Record<string, number>, modulus: number, strainLimi
   }
 }
 
-export function evaluate({ params, material, method }: ModelInput): ModelOutput {
-  if (method === 'nonlinear-fe') return nonlinearFe(params, material.modulus, material.strainLimit)
-  return linear(params, material.modulus, material.strainLimit)
+export function evaluate({ params, material, method, wideBeam }: ModelInput): ModelOutput {
+  // the blades bend as plate strips when deep for their thickness (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam }, params.depth, params.thickness, 'blades')
+  const E = bending.modulus
+  if (method === 'nonlinear-fe') return { ...nonlinearFe(params, E, material.strainLimit), bending }
+  return { ...linear(params, E, material.strainLimit), bending }
 }

@@ -1,10 +1,12 @@
 /** Search's fast estimate of the parallel guide: its linear closed forms on raw numbers (a test holds it to the family's evaluate). */
+import { bendingModulus } from '../../mechanics/wide-beam'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { linearStiffness, linearStrain, linearTravelRange, parasiticShortening } from './model'
 
 export const estimator = dedicatedEstimator('linear', 'linear', true,
   layoutOf([['stiffness', 1], ['maxTravel', 0], ['parasiticMotion', 0], ['maxStrain', 0], ['safetyFactor', 0]]),
-  (p, E, limit, out) => {
+  (p, material, limit, out, bending) => {
+    const E = bendingModulus(material, bending, p.depth, p.thickness) // the model's wide-beam rule
     const range = linearTravelRange(p, limit)
     const strain = linearStrain(p, range.maxTravel)
     out[0] = linearStiffness(p, E)

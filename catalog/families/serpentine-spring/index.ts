@@ -12,6 +12,7 @@ export const serpentineSpring = defineFamily({
   defaultMethod: 'nonlinear-fe',
   search: { estimator },
   designMap: { sweep: ['spanLength', 'thickness'] },
+  bendsBeams: true,
   cautions: [
     'The peak strain is checked against the material\u2019s strain limit shown with the result; a spring cycled many times should stay well below it, since polymers fatigue at strains far under their one-off limit.',
     'Polymers creep: a spring held stretched relaxes, loses preload and takes a set, faster when warm; do not rely on a printed spring for a lasting preload.',

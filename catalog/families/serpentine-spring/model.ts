@@ -4,6 +4,7 @@
  * end moment makes ∫M ds = 0, so M = F(y − ȳ) and k = EI/∫(y − ȳ)² ds (REFERENCES §6; for N odd
  * k = 1/[N b³/(12EI) + (N−1) a b²/(4EI)]; published forms: Fedder, PhD thesis, UC Berkeley, 1994).
  */
+import { bendingBasis } from '../../mechanics/wide-beam'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
 import { nonlinearFeMethod, peakStrainMetric, strainSafetyMetric } from '../../schema/define'
 import { followPath, indicesUpTo, meshPolyline, rectangleSection, sampleAt, strainLimitedStop, type Frame, type PathResult } from '../../solvers'
@@ -188,7 +189,10 @@ function nonlinearFe(params: Record<string, number>, modulus: number, strainLimi
   }
 }
 
-export function evaluate({ params, material, method }: ModelInput): ModelOutput {
-  if (method === 'nonlinear-fe') return nonlinearFe(params, material.modulus, material.strainLimit)
-  return castigliano(params, material.modulus, material.strainLimit)
+export function evaluate({ params, material, method, wideBeam }: ModelInput): ModelOutput {
+  // the spans bend as plate strips when deep for their thickness (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam }, params.depth, params.thickness, 'spans')
+  const E = bending.modulus
+  if (method === 'nonlinear-fe') return { ...nonlinearFe(params, E, material.strainLimit), bending }
+  return { ...castigliano(params, E, material.strainLimit), bending }
 }

@@ -12,6 +12,7 @@ export const snapHook = defineFamily({
   defaultMethod: 'snap-fit-equations',
   search: { estimator },
   designMap: { sweep: ['length', 'rootThickness'] },
+  bendsBeams: true,
   cautions: [
     'The root strain is checked against the material\u2019s strain limit shown with the result; for a hook that is assembled and released many times, keep the root strain to about 60 % of a single-assembly limit (suppliers\u2019 guides, from memory).',
     'Polymers creep: a latch held deflected, or holding a preloaded lid, relaxes over time and loses holding force, faster when warm; design the hook to sit unstrained when engaged.',

@@ -3,6 +3,7 @@
  * snap-fit design guides; Bonenberger, The First Snap-Fit Handbook, Hanser 2005), with the
  * taper correction taken from the cantilever beam integral rather than a lookup table.
  */
+import { bendingBasis } from '../../mechanics/wide-beam'
 import type { AxisSpec, MethodInfo, MetricSpec, ModelInput, ModelOutput } from '../../schema/types'
 import { strainLimitMetric, strainSafetyMetric } from '../../schema/define'
 
@@ -92,9 +93,11 @@ function pct(v: number): string {
   return `${(v * 100).toFixed(2)} %`
 }
 
-export function evaluate({ params, material }: ModelInput): ModelOutput {
+export function evaluate({ params, material, wideBeam }: ModelInput): ModelOutput {
   const { length, rootThickness, tipThickness, width, undercut, entryAngle, retainAngle, friction } = params
-  const E = material.modulus
+  // the arm bends as a plate strip when it is wide for its root thickness (catalog/mechanics/wide-beam.ts)
+  const bending = bendingBasis(material.modulus, { poissonRatio: material.poissonRatio, wideBeam }, width, rootThickness, 'arm')
+  const E = bending.modulus
   const ratio = tipThickness / rootThickness
   const warnings: string[] = []
 
@@ -140,5 +143,6 @@ export function evaluate({ params, material }: ModelInput): ModelOutput {
       safetyFactor: material.strainLimit / strain,
     },
     warnings,
+    bending,
   }
 }

@@ -1,4 +1,5 @@
 /** Search's fast estimate of the snap hook: the snap-fit equations on raw numbers (a test holds it to the family's evaluate). */
+import { bendingModulus } from '../../mechanics/wide-beam'
 import { dedicatedEstimator, layoutOf } from '../../schema/estimator'
 import { taperIntegral } from './model'
 
@@ -30,7 +31,8 @@ tanValues.fill(NaN)
 
 export const estimator = dedicatedEstimator('snap-fit-equations', 'snap-fit-equations', true,
   layoutOf([['deflectionForce', 1], ['matingForce', 1], ['separationForce', 1], ['rootStrain', 0], ['strainLimit', 0], ['safetyFactor', 0]]),
-  (p, E, limit, out) => {
+  (p, material, limit, out, bending) => {
+    const E = bendingModulus(material, bending, p.width, p.rootThickness) // the model's wide-beam rule
     // the root strain is taken at the undercut (a displacement), so it does not depend on E
     // deflectionForce and rootStrainAt written out with the taper integral taken once (the same expressions, so the same numbers)
     const J = taperIntegral(p.tipThickness / p.rootThickness)

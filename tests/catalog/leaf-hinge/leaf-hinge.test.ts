@@ -9,7 +9,8 @@ const DEG = 180 / Math.PI
 
 describe('leaf-hinge: small rotation', () => {
   it.each([2, 6, 30, 120])('linkLength %f mm: stiffness EI/L, the leaf-hinge compliance θ/M = 12L/(Ebt³) (Howell & Midha 1994; REFERENCES §4), from PRBM and solver', (linkLength) => {
-    const params = { length: 6, thickness: 0.6, depth: 8, linkLength, modulus: E }
+    // wideBeam 'off': Howell & Midha's compliance is plain beam theory (the plate factor: tests/catalog/mechanics)
+    const params = { length: 6, thickness: 0.6, depth: 8, linkLength, modulus: E, wideBeam: 'off' }
     const expected = (E * 8 * 0.6 ** 3) / (12 * 6)
     expect(evaluate('leaf-hinge', params, { method: 'prbm' }).metrics.rotationalStiffness).toBeCloseTo(expected, 9)
     const fe = evaluate('leaf-hinge', params, { method: 'nonlinear-fe' }).metrics.rotationalStiffness as number

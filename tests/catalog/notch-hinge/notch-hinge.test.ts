@@ -32,7 +32,8 @@ describe('notch-hinge: Paros–Weisbord closed forms', () => {
   })
 
   it('largest rotation is where the neck strain 6M/(Ebt²) reaches the limit (beam theory at the neck)', () => {
-    const observed = evaluate('notch-hinge', { radius: 3, neckThickness: 0.8, depth: 8, blockThickness: 8, modulus: 2000, strainLimit: 0.02, }, { method: 'paros-weisbord' })
+    // wideBeam 'off': Paros–Weisbord is written with E alone (the plate factor: tests/catalog/mechanics)
+    const observed = evaluate('notch-hinge', { radius: 3, neckThickness: 0.8, depth: 8, blockThickness: 8, modulus: 2000, strainLimit: 0.02, wideBeam: 'off' }, { method: 'paros-weisbord' })
     const C = parosWeisbordCompliance(2000, 8, 3, 0.8)
     const expected = C * (0.02 * 2000 * 8 * 0.64) / 6 * (180 / Math.PI)
     expect(observed.metrics.maxRotation).toBeCloseTo(expected, 9)
@@ -100,7 +101,8 @@ describe('notch-hinge through the command line', () => {
   it('evaluate prints the JSON result with the chosen method', async () => {
     const out = capture<typeof process.stdout>()
     const err = capture<typeof process.stderr>()
-    const code = await main(['evaluate', 'notch-hinge', '{"radius":3,"neckThickness":0.6}', '--method', 'paros-weisbord-simplified'], out.stream, err.stream)
+    // wideBeam "off": the expected compliance below is Paros–Weisbord with E alone
+    const code = await main(['evaluate', 'notch-hinge', '{"radius":3,"neckThickness":0.6,"wideBeam":"off"}', '--method', 'paros-weisbord-simplified'], out.stream, err.stream)
     expect(code).toBe(0)
     const observed = JSON.parse(out.text())
     expect(observed.family).toBe('notch-hinge')

@@ -1,3 +1,5 @@
+/** PETG's Poisson's ratio (docs/references.md §8) under the default wide-beam rule. */
+const BENDING = { poissonRatio: 0.38, wideBeam: 'auto' } as const
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { families } from '../../../catalog'
@@ -25,7 +27,7 @@ function validParams(family: FamilyDefinition) {
 
 function fillOf(estimator: FastEstimator, params: Record<string, number>, E: number, limit: number): Float64Array | null {
   const out = new Float64Array(estimator.layout!.keys.length)
-  return estimator.fill!(params, E, limit, out) ? out : null
+  return estimator.fill!(params, E, limit, out, BENDING) ? out : null
 }
 
 const sameNumber = (observed: number, expected: number, relative: number) =>
@@ -65,7 +67,7 @@ describe('fast estimators: modulus dependence and emptiness', () => {
 
     it(`${family.id}: the layout names the estimate's keys in its order`, () => {
       const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
-      expect(Object.keys(estimator.estimate(params, 2000, 0.03))).toEqual([...estimator.layout!.keys])
+      expect(Object.keys(estimator.estimate(params, 2000, 0.03, BENDING))).toEqual([...estimator.layout!.keys])
     })
   }
 })
@@ -116,11 +118,11 @@ describe('CandidateJudge', () => {
       const tolerance = fc.record({ thickness: fc.constantFrom(0, 0.02, 0.05, 0.1), modulus: fc.constantFrom(0, 0.1, 0.3) })
       let banded = 0
       fc.assert(fc.property(validParams(family), validParams(family), fc.boolean(), fc.array(fc.double({ min: 0, max: 1.5, noNaN: true }), { minLength: 3, maxLength: 3 }), tolerance, (around, other, same, spread, tol) => {
-        const metrics = estimator.estimate(around as Record<string, number>, 2000, 0.03)
+        const metrics = estimator.estimate(around as Record<string, number>, 2000, 0.03, BENDING)
         const window = windowAround(family, metrics, spread, tol)
         const compiled = compileWindow(window)
         const ctx: CandidateContext = {
-          family, estimator, modulus: 2000, strainLimit: 0.03, tolerance: resolveTolerance(window.tolerance), compiled, footprint: undefined,
+          family, estimator, modulus: 2000, strainLimit: 0.03, bending: BENDING, tolerance: resolveTolerance(window.tolerance), compiled, footprint: undefined,
           walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
         }
         const keys = [...compiled.metrics, 'bistable']

@@ -1,3 +1,5 @@
+/** PETG's Poisson's ratio (docs/references.md §8) under the default wide-beam rule. */
+const PETG_BENDING = { poissonRatio: 0.38, wideBeam: 'auto' } as const
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { evaluate, families } from '../../../catalog'
@@ -23,7 +25,7 @@ describe('fast estimators', () => {
       const estimator = estimatorFor(family)
       fc.assert(fc.property(validParams(family), fc.constantFrom('petg', 'pla', 'pp'), (params, material) => {
         const expected = evaluate(family.id, { ...params, material }, { method: estimator.method })
-        const observed = estimator.estimate(params as Record<string, number>, expected.material.modulus, expected.material.strainLimit)
+        const observed = estimator.estimate(params as Record<string, number>, expected.material.modulus, expected.material.strainLimit, { poissonRatio: expected.material.poissonRatio, wideBeam: 'auto' })
         for (const [key, value] of Object.entries(observed)) {
           if (!closeTo(value, expected.metrics[key])) throw new Error(`${key}: observed ${value}, expected ${expected.metrics[key]}`)
         }
@@ -39,7 +41,7 @@ describe('fast estimators', () => {
     expect(estimator).toMatchObject({ method: 'table', reproduces: 'nonlinear-fe', exact: false })
     const params = { span: 40, apexHeight: 3, thickness: 0.8, depth: 5, postLength: 0 }
     const exact = evaluate('bistable-beam', { ...params, material: 'petg' }, { method: 'nonlinear-fe' }).metrics
-    const observed = estimator.estimate(params, 2000, 0.02)
+    const observed = estimator.estimate(params, 2000, 0.02, PETG_BENDING)
     for (const key of ['peakForce', 'valleyForce', 'secondStablePosition']) {
       expect(Math.abs((observed[key] as number) / (exact[key] as number) - 1)).toBeLessThan(0.05)
     }
@@ -52,7 +54,7 @@ describe('fast estimators', () => {
     const estimator = estimatorFor(family)
     expect(estimator.method).toBe(family.methods.find((m) => m.id !== 'nonlinear-fe')!.id)
     const params = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
-    const expected = family.evaluate({ params, material: { id: null, name: '', modulus: 2000, strainLimit: 0.02 }, method: estimator.method }).metrics
-    expect(estimator.estimate(params, 2000, 0.02)).toEqual(expected)
+    const expected = family.evaluate({ params, material: { id: null, name: '', modulus: 2000, strainLimit: 0.02, poissonRatio: 0.38 }, method: estimator.method, wideBeam: 'auto' }).metrics
+    expect(estimator.estimate(params, 2000, 0.02, PETG_BENDING)).toEqual(expected)
   })
 })

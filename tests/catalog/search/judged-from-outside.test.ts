@@ -106,7 +106,11 @@ describe('spring search: the band and the ranking, recomputed here', () => {
     const family = getFamily(r.family)
     const estimator = estimatorFor(family)
     return corners(r.family, numeric(r.params), materialModulus(r.params.material as string), tol)
-      .map((c) => estimator.estimate(c.params, c.modulus, builtinMaterials.find((m) => m.id === r.params.material)!.strainLimit).stiffness as number)
+      .map((c) => {
+        const material = builtinMaterials.find((m) => m.id === r.params.material)!
+        // search bends with the default wide-beam rule ('auto') and the material's Poisson's ratio
+        return estimator.estimate(c.params, c.modulus, material.strainLimit, { poissonRatio: material.poissonRatio, wideBeam: 'auto' }).stiffness as number
+      })
   }
 
   it('every result keeps the whole band inside the window (a zero band in the engine fails here)', () => {

@@ -5,6 +5,7 @@
  * in designMapCompute.ts, which only the web worker (and tests) load, so that the page's
  * bundle does not carry the estimators and the bistable table.
  */
+import type { BendingMaterial } from '@catalog/mechanics/wide-beam'
 
 /** Cells along each axis (issue 6: a 60 × 60 grid). */
 export const DESIGN_MAP_SIZE = 60
@@ -21,6 +22,8 @@ export interface DesignMapRequest {
   params: Record<string, number>
   modulus: number
   strainLimit: number
+  /** Poisson's ratio and wide-beam mode the estimates bend their beams with (catalog/mechanics/wide-beam.ts). */
+  bending: BendingMaterial
   x: MapAxis
   y: MapAxis
   /** A force window as the search takes it, or null for no outline. */

@@ -33,6 +33,7 @@ function windowJudge(family: FamilyDefinition, estimator: FastEstimator, req: De
     estimator,
     modulus: req.modulus,
     strainLimit: req.strainLimit,
+    bending: req.bending,
     tolerance: resolveTolerance(window.tolerance),
     compiled,
     // the map shows the feel over the two parameters; the footprint is search's business
@@ -64,7 +65,7 @@ export function computeDesignMap(req: DesignMapRequest): DesignMap {
       if (family.rules.some((r) => r.check(params))) { reasons[c] = 'rules'; continue }
       let metrics: Record<string, MetricValue>
       try {
-        metrics = estimator.estimate(params, req.modulus, req.strainLimit)
+        metrics = estimator.estimate(params, req.modulus, req.strainLimit, req.bending)
       } catch {
         reasons[c] = 'model'
         continue

@@ -55,6 +55,7 @@ export function mapRequest(family: Family, params: Record<string, number | strin
     params: numbers,
     modulus: material.modulus,
     strainLimit: material.strainLimit,
+    bending: { poissonRatio: material.poissonRatio, wideBeam: params.wideBeam === 'off' ? 'off' : 'auto' },
     x: { key: x.key, min: x.min, max: x.max },
     y: { key: y.key, min: y.min, max: y.max },
     window,

@@ -5,7 +5,7 @@ import { cellOf, linspace, snapToStep } from '@/composables/designMap'
 import { computeDesignMap, familyOf, mapEstimatorOf } from '@/composables/designMapCompute'
 
 const SWITCH = { span: 60, apexHeight: 2.1, thickness: 0.7, depth: 6, postLength: 0 }
-const PETG = { modulus: 2000, strainLimit: 0.02 }
+const PETG = { modulus: 2000, strainLimit: 0.02, bending: { poissonRatio: 0.38, wideBeam: 'auto' as const } }
 const sweep = (window: unknown = null) => computeDesignMap({
   familyId: 'bistable-beam', params: SWITCH, ...PETG,
   x: { key: 'apexHeight', min: 0.8, max: 3 }, y: { key: 'thickness', min: 0.4, max: 1.2 }, window,
@@ -25,7 +25,7 @@ describe('computeDesignMap (bistable-beam, apex height × thickness)', () => {
   it('gives each cell the fast estimate at its parameters', () => {
     const estimator = mapEstimatorOf(familyOf('bistable-beam'))
     for (const [i, j] of [[30, 30], [55, 10], [45, 50]]) {
-      const expected = estimator.estimate({ ...SWITCH, apexHeight: map.xs[i], thickness: map.ys[j] }, PETG.modulus, PETG.strainLimit)
+      const expected = estimator.estimate({ ...SWITCH, apexHeight: map.xs[i], thickness: map.ys[j] }, PETG.modulus, PETG.strainLimit, PETG.bending)
       expect(map.values.peakForce[j * 60 + i]).toBe(expected.peakForce)
     }
   })

@@ -9,7 +9,7 @@ import { useLiveEvaluation } from '../useLiveEvaluation'
 const fields = ref(paramFields([{ key: 'span', label: 'Span', unit: 'mm', default: 40, min: 10, max: 120, step: 1, help: '' }]))
 
 function evaluation(span: number): Evaluation {
-  return { family: 'f', method: 'm', params: { span }, material: { id: 'petg', name: 'PETG', modulus: 2000, strainLimit: 0.02 }, curve: { displacement: [0, 1], force: [0, span], axes: { displacement: { label: 'Displacement', unit: 'mm' }, force: { label: 'Force', unit: 'N' } } }, metrics: {}, warnings: [], source: '' }
+  return { family: 'f', method: 'm', params: { span }, material: { id: 'petg', name: 'PETG', modulus: 2000, strainLimit: 0.02, poissonRatio: 0.38 }, curve: { displacement: [0, 1], force: [0, span], axes: { displacement: { label: 'Displacement', unit: 'mm' }, force: { label: 'Force', unit: 'N' } } }, metrics: {}, warnings: [], source: '' }
 }
 
 function setup(evaluate: (id: string, body: { params: Record<string, number | string> }, signal?: AbortSignal) => Promise<Evaluation>) {

@@ -8,7 +8,7 @@ const specs: ParamSpec[] = [
   { key: 'span', label: 'Span', unit: 'mm', default: 40, min: 10, max: 120, step: 0.5, help: 'Distance between the clamps' },
   { key: 'apexHeight', label: 'Apex height', unit: 'mm', default: 3, min: 0.5, max: 10, step: 0.05, help: 'Rise at mid-span' },
 ]
-const petg: Material = { id: 'petg', name: 'PETG (FDM)', process: 'FDM', modulus: 2000, strainLimit: 0.02, density: 1.27, notes: '', source: '' }
+const petg: Material = { id: 'petg', name: 'PETG (FDM)', process: 'FDM', modulus: 2000, poissonRatio: 0.38, poissonRatioSource: '', strainLimit: 0.02, density: 1.27, notes: '', source: '' }
 
 function render(errors: Record<string, string> = {}) {
   return mount(ParamForm, {
