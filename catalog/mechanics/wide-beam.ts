@@ -26,7 +26,7 @@ export type WideBeamMode = (typeof WIDE_BEAM_MODES)[number]
 export const DEFAULT_WIDE_BEAM: WideBeamMode = 'auto'
 
 /** Depth over thickness at and above which a beam bends as a plate strip (Senturia's rule, from memory). */
-export const WIDE_BEAM_RATIO = 5
+const WIDE_BEAM_RATIO = 5
 
 /** What the correction needs besides the section: the material's Poisson's ratio and the mode. */
 export interface BendingMaterial {
@@ -49,7 +49,7 @@ export interface BendingBasis {
 }
 
 /** The factor E_bending/E for a section of this depth and thickness (both mm). */
-export function wideBeamFactor(poissonRatio: number, depth: number, thickness: number, mode: WideBeamMode): number {
+function wideBeamFactor(poissonRatio: number, depth: number, thickness: number, mode: WideBeamMode): number {
   if (mode === 'off') return 1
   return depth >= WIDE_BEAM_RATIO * thickness ? 1 / (1 - poissonRatio * poissonRatio) : 1
 }
