@@ -50,7 +50,7 @@ describe('block screening', () => {
             const params = { ...base, [key]: spec.integer ? Math.round(v) : v }
             if (family.rules.some((r) => r.check(params) !== null)) return true
             const out = new Float64Array(estimator.layout!.keys.length)
-            if (!estimator.fill!(params, E, limit, out)) return true
+            if (!estimator.fill!(params, E, limit, out, { poissonRatio: 0.38, wideBeam: 'auto' })) return true
             values.push([...out])
           }
           for (let slot = 0; slot < estimator.layout!.keys.length; slot++) {
