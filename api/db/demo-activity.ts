@@ -15,6 +15,16 @@
 import type { SyntheticMeasurement } from './demo-measurement'
 import type { CommentKind } from './models/entry-comment'
 import type { DemoEntry } from './demo-shelf'
+import { createHash } from 'node:crypto'
+
+/**
+ * A demo report's stored file key, in the same shape as an uploaded one (reports/ and 32 hex
+ * digits: the file stores refuse anything else) and the same on every start, so the seed finds
+ * the report it made before.
+ */
+function demoFileKey(name: string): string {
+  return `reports/${createHash('md5').update(`flexshelf-demo-report:${name}`).digest('hex')}.csv`
+}
 
 const LIBRARIAN = 'librarian@demo.flexshelf.test'
 const CONTRIBUTOR = 'contributor@demo.flexshelf.test'
@@ -97,7 +107,7 @@ export const DEMO_REPORTS: readonly DemoReport[] = [
     reviewer: LIBRARIAN,
     reviewNote: 'Accepted: the curve keeps its shape and the fitted modulus is consistent with other PETG prints from this printer.',
     status: 'accepted',
-    filePath: 'reports/demo-power-switch-s1.csv',
+    filePath: demoFileKey('power-switch-s1'),
     originalName: 'demo-s1-switch-stand-run-1.csv',
     printer: 'Bench printer 1, 0.4 mm nozzle',
     material: 'PETG, demo lot',
@@ -111,7 +121,7 @@ export const DEMO_REPORTS: readonly DemoReport[] = [
     entry: 'Battery door hinge, field node shell S1',
     uploader: ENGINEER,
     status: 'submitted',
-    filePath: 'reports/demo-battery-door-hinge-s1.csv',
+    filePath: demoFileKey('battery-door-hinge-s1'),
     originalName: 'demo-s1-hinge-torque-run-1.csv',
     printer: 'Bench printer 1, 0.4 mm nozzle',
     material: 'PP, demo lot',

@@ -184,6 +184,8 @@ async function seedActivity(context: AppContext, registered: readonly string[], 
     const revision = (await EntryRevision.findByPk(entry.currentRevisionId))!
     const curve = syntheticMeasurement(revision.curve, demo.measurement)
     const axes = families.find((f) => f.id === entry.familyId)!.axes
+    // a start that stopped between this file and its row left the file behind: write it afresh
+    await store.remove(demo.filePath)
     await store.put(demo.filePath, Buffer.from(measurementCsv(curve, { displacement: axes.displacement.unit, force: axes.force.unit })), 'text/csv')
     reports.push({ demo, entry, revision, curve })
   }
