@@ -24,7 +24,7 @@ import type { ToleranceBand } from '../../catalog/tolerance'
 import type { PrinterProfile } from '../../catalog/window'
 import { ComputeBudgetExceededError, ComputeBusyError, DEFAULT_COMPUTE_BUDGET_MS, type ComputeAsk } from './compute/budget'
 import { jobQueueActive, runQueued } from './job-queue'
-import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask } from './compute/tasks'
+import { fromFailure, runTask, type CheckComputation, type ComputeOutcome, type ComputeTask, type ReportFit } from './compute/tasks'
 import { computeJobDuration, setComputeQueueProbe } from './metrics'
 
 export { ComputeBudgetExceededError, DEFAULT_COMPUTE_BUDGET_MS } from './compute/budget'
@@ -181,6 +181,16 @@ export const compute = {
   /** 3MF (bytes), DXF or SVG (text) of the solid buildGeometry makes. */
   partFile: (format: PartFormat, familyId: string, params: unknown, meta: Extract<ComputeTask, { kind: 'partFile' }>['meta'], what = `the ${format.toUpperCase()} of ${familyId}`) =>
     runBudgeted({ kind: 'partFile', format, familyId, params, meta }, { task: 'stl', what, familyId }) as Promise<Uint8Array | string>,
+  /**
+   * A test report's comparison and modulus fit. With several instances it goes to the queue's
+   * workers like the rest (budget, pick-up deadline, re-run after a worker dies); on one
+   * machine it stays in the calling thread as before (a fit takes milliseconds, a thread hop more).
+   */
+  reportFit: async (task: Omit<Extract<ComputeTask, { kind: 'reportFit' }>, 'kind'>, what = `the fit of a test report to ${task.familyId}`) => {
+    const full = { kind: 'reportFit' as const, ...task }
+    if (jobQueueActive()) return runBudgeted(full, { task: 'reportFit', what, familyId: task.familyId }) as Promise<ReportFit>
+    return runTask(full) as ReportFit
+  },
   hashPassword: (password: string, cost: number) => runPassword({ kind: 'hashPassword', password, cost }) as Promise<string>,
   comparePassword: (password: string, hash: string) => runPassword({ kind: 'comparePassword', password, hash }) as Promise<boolean>,
 }

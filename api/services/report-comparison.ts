@@ -13,6 +13,9 @@ export interface ReportComparison extends CurveComparison {
   predictedMaterial: { id: string | null; name: string; modulus: number }
 }
 
+/** What a comparison reads of the revision a report tested (plain data, so it can go to a worker). */
+export type ComparedRevision = Pick<EntryRevision, 'id' | 'number' | 'params' | 'curve'>
+
 export type MaterialNumbers = Array<{ id: string; name: string; modulus: number; strainLimit: number; poissonRatio?: number }>
 
 export function predictedMaterialOf(familyId: string, revision: Pick<EntryRevision, 'params'>, materials: MaterialNumbers) {
@@ -27,7 +30,7 @@ export function predictedMaterialOf(familyId: string, revision: Pick<EntryRevisi
 }
 
 /** null (with the reason) when the family is gone or the revision's material no longer resolves. */
-export function compareReport(familyId: string, report: Pick<TestReport, 'measuredCurve'>, revision: EntryRevision, materials: MaterialNumbers): { comparison: ReportComparison | null; problem: string | null } {
+export function compareReport(familyId: string, report: Pick<TestReport, 'measuredCurve'>, revision: ComparedRevision, materials: MaterialNumbers): { comparison: ReportComparison | null; problem: string | null } {
   const family = families.find((f) => f.id === familyId)
   if (!family) return { comparison: null, problem: `the module family "${familyId}" is no longer registered` }
   const material = predictedMaterialOf(familyId, revision, materials)

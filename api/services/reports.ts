@@ -19,7 +19,8 @@ import { recordAudit } from './audit'
 import { comparisonOf, reportsVisibleTo, showEntry, toReportView, visibleTo } from './entries'
 import { listMaterials } from './materials'
 import { librarianAddresses, notify, type Notice } from './notifications'
-import { compareReport, predictedMaterialOf, type MaterialNumbers } from './report-comparison'
+import { compute } from './compute-pool'
+import { predictedMaterialOf, type ComparedRevision, type MaterialNumbers } from './report-comparison'
 import { CsvError, parseMeasuredCurve } from './report-csv'
 import { DISPLACEMENT_UNITS, FORCE_UNITS, fileUnitChoices } from '../../catalog/units'
 import { neutraliseCsvFormulae } from './csv-safety'
@@ -120,7 +121,7 @@ export async function createReport(context: AppContext, actor: User, entryId: nu
   }
 
   // compared with the prediction once, here; entry pages and the review queue read it back
-  const { comparison, problem: comparisonProblem } = compareReport(entry.familyId, { measuredCurve: parsed.curve }, revision, await listMaterials(context))
+  const { comparison, problem: comparisonProblem } = await compute.reportFit({ familyId: entry.familyId, measuredCurve: parsed.curve, revision: plainRevision(revision), materials: await listMaterials(context) })
 
   const filePath = `reports/${generatedName('csv')}`
   const photoPath = photo ? `photos/${generatedName(photoType === 'png' ? 'png' : 'jpg')}` : null
@@ -292,6 +293,9 @@ const adoptBody = bodySchema({
   name: textField('name', 120).optional(),
 })
 
+/** The revision as plain data for a report fit (which may run on a queue worker). */
+const plainRevision = (r: EntryRevision): ComparedRevision => ({ id: r.id, number: r.number, params: r.params, curve: r.curve })
+
 const sig = (v: number) => Number(v.toPrecision(4))
 
 /** POST /api/reports/:id/adopt-modulus: a calibrated material with the report's fitted modulus. */
@@ -305,7 +309,7 @@ export async function adoptModulus(context: AppContext, actor: User, reportId: n
   const revision = report.revisionId ? await EntryRevision.findByPk(report.revisionId) : null
   if (!revision) throw conflict('the revision this report tested is gone, so there is no prediction to calibrate against')
   const materials = await listMaterials(context)
-  const { comparison, problem } = compareReport(entry.familyId, report, revision, materials)
+  const { comparison, problem } = await compute.reportFit({ familyId: entry.familyId, measuredCurve: report.measuredCurve, revision: plainRevision(revision), materials })
   if (!comparison?.modulusFit) throw conflict(`no effective modulus could be fitted to this report: ${comparison?.modulusFitProblem ?? problem}`)
   const base = predictedMaterialOf(entry.familyId, revision, materials)
   const baseMaterial = base?.id ? materials.find((m) => m.id === base.id) : undefined

@@ -9,6 +9,7 @@ import { buildGeometry, buildPartFile, evaluate, getFamily, serializeStl, Solver
 import { checkPrintability, type PrintabilityReport } from '../../../catalog/printability'
 import { toleranceBand, type ToleranceBand } from '../../../catalog/tolerance'
 import type { PrinterProfile } from '../../../catalog/window'
+import { compareReport, type ComparedRevision, type MaterialNumbers, type ReportComparison } from '../report-comparison'
 
 type Materials = EvaluateOptions['materials']
 
@@ -18,6 +19,7 @@ export type ComputeTask =
   | { kind: 'check'; familyId: string; params: unknown; options: Parameters<typeof toleranceBand>[2]; printer: Partial<PrinterProfile> }
   | { kind: 'stl'; familyId: string; params: unknown }
   | { kind: 'partFile'; format: PartFormat; familyId: string; params: unknown; meta: Omit<PartMetadata, 'family' | 'params'> }
+  | { kind: 'reportFit'; familyId: string; measuredCurve: Parameters<typeof compareReport>[1]['measuredCurve']; revision: ComparedRevision; materials: MaterialNumbers }
   | { kind: 'hashPassword'; password: string; cost: number }
   | { kind: 'comparePassword'; password: string; hash: string }
 
@@ -27,7 +29,13 @@ export interface CheckComputation {
   printability: PrintabilityReport
 }
 
-export type ComputeValue = Evaluation | ToleranceBand | CheckComputation | Uint8Array | string | boolean
+/** A report's comparison with its revision's prediction (features and modulus fit), or why there is none. */
+export interface ReportFit {
+  comparison: ReportComparison | null
+  problem: string | null
+}
+
+export type ComputeValue = Evaluation | ToleranceBand | CheckComputation | ReportFit | Uint8Array | string | boolean
 
 /** A failure as data: the core's own errors keep their class, fields and details. */
 export type ComputeFailure =
@@ -55,6 +63,8 @@ export function runTask(task: ComputeTask): ComputeValue {
       return serializeStl(buildGeometry(task.familyId, task.params))
     case 'partFile':
       return buildPartFile(task.format, task.familyId, task.params, task.meta)
+    case 'reportFit':
+      return compareReport(task.familyId, { measuredCurve: task.measuredCurve }, task.revision, task.materials)
     // bcrypt is slow on purpose (a quarter second at cost 12): on a pool thread it may block
     case 'hashPassword':
       return bcrypt.hashSync(task.password, task.cost)
