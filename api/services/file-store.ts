@@ -24,8 +24,8 @@ export interface FileStore {
   readonly description: string
 }
 
-/** A folder and a plain name: uploads get random hex names, the demo's seeded reports readable ones; nothing that could leave the folder. */
-const SAFE_KEY = /^[a-z]+\/[a-z0-9][a-z0-9-]{0,99}\.(csv|png|jpg)$/
+/** A folder and 32 hex digits: uploads get random names and the demo's seeded reports hashed ones (demo-activity.ts); nothing that could leave the folder. */
+const SAFE_KEY = /^[a-z]+\/[0-9a-f]{32}\.(csv|png|jpg)$/
 
 function checkedKey(key: string): string {
   // Windows-style separators from an older upload path become forward slashes
