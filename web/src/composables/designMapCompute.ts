@@ -51,7 +51,10 @@ export function computeDesignMap(req: DesignMapRequest): DesignMap {
   const judge = windowJudge(family, estimator, { ...req, window: req.window && typeof req.window === 'object' ? { ...(req.window as object), materials: undefined } : req.window })
   const xs = linspace(req.x.min, req.x.max, size)
   const ys = linspace(req.y.min, req.y.max, size)
-  const numeric = family.metrics.filter((m) => m.unit !== 'boolean').map((m) => m.key)
+  // only what the fast estimate gives: a metric read off the exact curve (the largest force, say)
+  // has no value here, and offering it would colour nothing
+  const estimated = estimator.layout ? new Set(estimator.layout.keys) : null
+  const numeric = family.metrics.filter((m) => m.unit !== 'boolean' && (!estimated || estimated.has(m.key))).map((m) => m.key)
   const values: Record<string, Array<number | null>> = Object.fromEntries(numeric.map((k) => [k, new Array(size * size).fill(null)]))
   const state: CellState[] = new Array(size * size).fill('invalid')
   const meets: boolean[] = new Array(size * size).fill(false)

@@ -22,6 +22,12 @@ describe('computeDesignMap (bistable-beam, apex height × thickness)', () => {
     expect(map.values.peakForce).toHaveLength(3600)
   })
 
+  it('offers only what the fast estimate gives: the largest force is read off the exact curve, so the map has no values for it', () => {
+    expect(Object.keys(map.values)).toContain('peakForce')
+    expect(Object.keys(map.values)).not.toContain('largestForce')
+    for (const values of Object.values(map.values)) expect(values.some((v) => v !== null)).toBe(true)
+  })
+
   it('gives each cell the fast estimate at its parameters', () => {
     const estimator = mapEstimatorOf(familyOf('bistable-beam'))
     for (const [i, j] of [[30, 30], [55, 10], [45, 50]]) {
