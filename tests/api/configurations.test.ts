@@ -175,6 +175,21 @@ describe('POST /api/configurations/:id/share and GET /api/shared/:token', () => 
     expect((await as(colleague).get(`/api/shared/${token}/datasheet`)).body.datasheet.configuration).toEqual({ id: c.id, name: 'Shared hook' })
   })
 
+  it('a configuration stored before wideBeam existed opens, by its link too, with the default "auto"', async () => {
+    const old = await save({ name: 'Stored before wide beams' })
+    const row = (await t.context.db.models.SavedConfiguration.findByPk(old.id))!
+    const { wideBeam, ...before } = row.params as Record<string, unknown>
+    expect(wideBeam).toBe('auto') // saved now, it is stored with the echo; an old record lacks it
+    await row.update({ params: before as typeof row.params })
+    const link = (await as(owner).post(`/api/configurations/${old.id}/share`)).body.shareToken
+    for (const path of [`/api/configurations/${old.id}/check`, `/api/shared/${link}/check`]) {
+      const checked = await as(path.startsWith('/api/shared') ? colleague : owner).get(path)
+      expect(checked.status, path).toBe(200)
+      expect(checked.body.evaluation.params.wideBeam, path).toBe('auto')
+    }
+    expect((await as(colleague).get(`/api/shared/${link}/datasheet`)).status).toBe(200)
+  })
+
   it('answers 404 for a bad or unknown token', async () => {
     expect((await as(colleague).get('/api/shared/nope')).status).toBe(404)
     expect((await as(colleague).get(`/api/shared/${'A'.repeat(32)}`)).status).toBe(404)
