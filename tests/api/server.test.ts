@@ -44,7 +44,7 @@ describe('api/server.ts', () => {
       const server = runServer({ PORT: '0' })
       await waitFor(() => /Flexshelf is running at http:\/\/localhost:\d+/.test(server.output()), 30_000)
       const port = /localhost:(\d+)/.exec(server.output())![1]
-      expect(server.output()).toMatch(/Demo data: 4 users, \d+ materials, \d+ entries added/)
+      expect(server.output()).toMatch(/Demo data: 4 users, \d+ materials, \d+ entries(, \d+ activity records)? added/)
       const health = await fetch(`http://127.0.0.1:${port}/api/health`)
       expect(health.status).toBe(200)
       expect(await health.json()).toMatchObject({ status: 'ok', database: 'ok' })
