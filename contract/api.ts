@@ -5,14 +5,15 @@
  * no schema), and the API tests parse every answer against `responseContract`.
  *
  * The catalog's own result types (an evaluation, a curve, a judgement, a printability report,
- * a search answer) are already shared source; they appear here as `catalogValue<T>()`, checked
- * to be objects with the fields the client reads first.
+ * a force window, a shelf entry, a search answer and its confirmation) are described field by
+ * field and pinned to the catalog's TypeScript types at the end of this file: a field added to
+ * one and not the other fails the type check.
  */
 import { z } from 'zod'
 import type { CurveComparison } from '../catalog/calibration'
 import type { PrintabilityReport } from '../catalog/printability'
 import type { Curve, Evaluation, MetricSpec, ModuleKind, ParamSpec } from '../catalog/schema/types'
-import type { Confirmation, ShelfEntry } from '../catalog/search/types'
+import type { Confirmation, SearchAnswer, SearchResult, ShelfEntry } from '../catalog/search/types'
 import type { ForceWindow, Judgement } from '../catalog/window'
 
 /** A catalog type on the wire: an object carrying at least `keys`. */
@@ -20,11 +21,16 @@ function catalogValue<T>(what: string, keys: readonly string[]) {
   return z.custom<T>((v) => typeof v === 'object' && v !== null && keys.every((k) => k in v), { message: `expected ${what} (with ${keys.join(', ')})` })
 }
 
+/** True when A and B are each assignable to the other and name the same fields; `never` otherwise, so `true satisfies Same<A, B>` fails the type check. */
+type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? ([keyof A] extends [keyof B] ? ([keyof B] extends [keyof A] ? true : never) : never) : never) : never
+
 const isoDate = z.string().refine((s) => !Number.isNaN(Date.parse(s)), 'expected an ISO 8601 date')
 const metricValue = z.union([z.number(), z.boolean(), z.null()])
 const paramValues = z.record(z.string(), z.union([z.number(), z.string()]))
 const paramRanges = z.record(z.string(), z.tuple([z.number(), z.number()]))
 const box = z.object({ x: z.number(), y: z.number(), z: z.number() })
+const band = z.tuple([z.number(), z.number()])
+const metricBand = z.record(z.string(), band.nullable())
 const revisionRef = z.object({ id: z.number().int(), number: z.number().int() })
 
 export const roles = ['engineer', 'contributor', 'librarian', 'admin'] as const
@@ -55,17 +61,23 @@ export const PersonRef = z.object({ id: z.number().int(), displayName: z.string(
 
 const axisSpec = z.object({ label: z.string(), unit: z.string() })
 const axes = z.object({ displacement: axisSpec, force: axisSpec })
+const ParamSpecSchema = z.object({
+  key: z.string(), label: z.string(), unit: z.string(), default: z.number(), min: z.number(), max: z.number(), step: z.number(), help: z.string(),
+  integer: z.boolean().optional(),
+  role: z.enum(['wall', 'length', 'angle', 'count', 'ratio']).optional(),
+})
+const MetricSpecSchema = z.object({ key: z.string(), label: z.string(), unit: z.string(), help: z.string().optional() })
 /** A family as the API sends it: the catalog definition without its functions. */
 export const Family = z.object({
   id: z.string(),
   name: z.string(),
   kind: ModuleKindSchema,
   summary: z.string(),
-  params: z.array(catalogValue<ParamSpec>('a parameter', ['key', 'label', 'unit', 'default', 'min', 'max', 'step'])),
+  params: z.array(ParamSpecSchema),
   rules: z.array(z.object({ fields: z.array(z.string()) })),
   methods: z.array(z.object({ id: z.string(), label: z.string(), source: z.string() })),
   defaultMethod: z.string(),
-  metrics: z.array(catalogValue<MetricSpec>('a metric', ['key', 'label', 'unit'])),
+  metrics: z.array(MetricSpecSchema),
   axes,
   cautions: z.array(z.string()),
   /** The two parameters the design map sweeps first (x across, y up), or null for the map's own choice. */
@@ -76,8 +88,22 @@ export const Material = z.object({
   id: z.string(), name: z.string(), process: z.string(), modulus: z.number(), poissonRatio: z.number(), poissonRatioSource: z.string(), strainLimit: z.number(), density: z.number(), notes: z.string(), source: z.string(),
 })
 
-const EvaluationSchema = catalogValue<Evaluation>('an evaluation', ['family', 'method', 'params', 'material', 'curve', 'metrics', 'warnings', 'source'])
-const CurveSchema = catalogValue<Curve>('a curve', ['displacement', 'force'])
+const CurveSchema = z.object({
+  displacement: z.array(z.number()),
+  force: z.array(z.number()),
+  strain: z.array(z.number()).optional(),
+  axes,
+})
+const EvaluationSchema = z.object({
+  family: z.string(),
+  method: z.string(),
+  params: paramValues,
+  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number() }),
+  curve: CurveSchema,
+  metrics: z.record(z.string(), metricValue),
+  warnings: z.array(z.string()),
+  source: z.string(),
+})
 
 // ── entries ──────────────────────────────────────────────────────────────────────────
 
@@ -218,9 +244,43 @@ export const ToleranceSetting = z.object({
   modulus: z.number(),
 })
 export const PrinterSetting = z.object({ nozzle: z.number(), layer: z.number() })
-const ForceWindowSchema = catalogValue<ForceWindow>('a force window', ['kind'])
-const JudgementSchema = catalogValue<Judgement>('a judgement', ['verdict', 'constraints'])
-const PrintabilitySchema = catalogValue<PrintabilityReport & { basis: string }>('a printability report', ['printer', 'checks', 'basis'])
+const windowRange = z.object({ min: z.number().optional(), max: z.number().optional() })
+const ForceWindowSchema = z.object({
+  kind: ModuleKindSchema,
+  peakForce: windowRange.optional(),
+  holdingForce: windowRange.optional(),
+  travel: windowRange.optional(),
+  stiffness: windowRange.optional(),
+  rotationalStiffness: windowRange.optional(),
+  rotation: windowRange.optional(),
+  matingForce: windowRange.optional(),
+  separationForce: windowRange.optional(),
+  footprint: z.object({ length: z.number().optional(), width: z.number().optional() }).optional(),
+  materials: z.array(z.string()).optional(),
+  printer: z.object({ nozzle: z.number(), layer: z.number() }).partial().optional(),
+  tolerance: z.object({ thickness: z.number(), modulus: z.number() }).partial().optional(),
+  text: z.string().optional(),
+  limit: z.number().optional(),
+})
+const verdict = z.enum(['inside', 'edge', 'outside'])
+const JudgementSchema = z.object({
+  verdict,
+  margin: z.number().nullable(),
+  constraints: z.array(z.object({
+    id: z.string(), label: z.string(), unit: z.string(), bound: z.number().nullable(), value: z.number().nullable(), margin: z.number().nullable(), verdict,
+  })),
+  strain: z.object({ basis: z.enum(['peak', 'working-range']), safetyFactor: z.number(), margin: z.number(), verdict }).nullable(),
+})
+const PrintabilityReportSchema = z.object({
+  printer: z.object({ nozzle: z.number(), layer: z.number(), lineWidth: z.number(), minimumWall: z.number() }),
+  checks: z.array(z.object({
+    id: z.string(), level: z.enum(['ok', 'warn', 'fail']), message: z.string(),
+    fix: z.object({ key: z.string(), from: z.number(), to: z.number() }).optional(),
+  })),
+  notes: z.array(z.string()),
+})
+/** The configure check's printability: the catalog's report and the rule it follows. */
+const PrintabilitySchema = PrintabilityReportSchema.extend({ basis: z.string() })
 
 export const BandView = z.object({
   tolerance: ToleranceSetting,
@@ -314,21 +374,79 @@ export const SavedConfiguration = z.object({
   updatedAt: isoDate,
 })
 
+// ── compare ──────────────────────────────────────────────────────────────────────────
+
+const level = z.enum(['ok', 'warn', 'fail'])
+/** One candidate of a comparison: a search result (an entry and its parameters) or a saved configuration, checked as the configure screen checks it. */
+export const ComparedCandidate = z.object({
+  label: z.string(),
+  source: z.discriminatedUnion('kind', [
+    z.object({ kind: z.literal('result'), entryId: z.number().int(), params: paramValues }),
+    z.object({ kind: z.literal('saved'), configurationId: z.number().int(), name: z.string() }),
+  ]),
+  check: CheckResult,
+})
+/** Up to four candidates side by side (GET /api/compare). */
+export const Comparison = z.object({
+  candidates: z.array(ComparedCandidate),
+  metrics: z.array(z.object({
+    key: z.string(), label: z.string(), unit: z.string(),
+    values: z.array(metricValue),
+    /** Low and high over the tolerance band, per candidate. */
+    bands: z.array(band.nullable()),
+    better: z.enum(['higher', 'lower']).nullable(),
+    /** Index of the best value (null when there is no direction or fewer than two numbers). */
+    best: z.number().int().nonnegative().nullable(),
+  })),
+  /** Printability side by side: each check's label and its status per candidate. */
+  printability: z.array(z.object({ id: z.string(), label: z.string(), statuses: z.array(z.string().nullable()), levels: z.array(level.nullable()) })),
+  cautions: z.array(z.string()),
+})
+
 // ── search ───────────────────────────────────────────────────────────────────────────
 
-const ShelfEntrySchema = catalogValue<ShelfEntry>('a shelf entry', ['id', 'familyId', 'name', 'materials', 'defaultParams', 'ranges', 'status'])
+const entryId = z.union([z.number(), z.string()])
+const ShelfEntrySchema = z.object({
+  id: entryId, familyId: z.string(), name: z.string(), summary: z.string(), tags: z.array(z.string()), materials: z.array(z.string()),
+  defaultParams: paramValues, ranges: paramRanges, status: z.enum(['draft', 'in_review', 'released', 'retired']),
+})
+const ConfirmationSchema = z.object({
+  method: z.string(),
+  metrics: z.record(z.string(), metricValue).nullable(),
+  agreement: z.record(z.string(), z.number()),
+  tolerance: z.record(z.string(), z.number()).optional(),
+  withinTolerance: z.boolean().optional(),
+  verdict: verdict.optional(),
+  band: metricBand.optional(),
+  margin: z.number().optional(),
+  uncertain: z.array(z.string()).optional(),
+  error: z.string().optional(),
+})
 const SearchResultSchema = z.object({
-  entryId: z.union([z.number(), z.string()]),
+  entryId,
   entryName: z.string(),
   family: z.string(),
   params: paramValues,
   metrics: z.record(z.string(), metricValue),
-  band: z.record(z.string(), z.tuple([z.number(), z.number()]).nullable()),
+  band: metricBand,
   margin: z.number(),
   safetyFactor: z.number().nullable(),
   method: z.string(),
-  confirmed: catalogValue<Confirmation>('a confirmation', ['method', 'metrics', 'agreement']).nullable(),
+  uncertain: z.array(z.string()),
+  confirmed: ConfirmationSchema.nullable(),
   why: z.string(),
+  rank: z.object({
+    tier: z.union([z.literal(1), z.literal(2)]), marginBand: band, safetyBand: band.nullable(), footprint: z.number(), volume: z.number(),
+  }).optional(),
+  closeVariants: z.array(z.object({ params: paramValues, margin: z.number(), safetyFactor: z.number().nullable() })).optional(),
+})
+/** The catalog's search answer (catalog/search/types.ts), field by field. */
+const CatalogSearchAnswer = z.object({
+  results: z.array(SearchResultSchema),
+  considered: z.number(),
+  elapsedMs: z.number(),
+  explanation: z.string(),
+  dropped: z.array(z.object({ entryId, entryName: z.string(), params: paramValues, reason: z.string(), uncertain: z.array(z.string()) })),
 })
 /** The scatter's points: every candidate the answer kept, capped (api/services/search/tradeoffs.ts). */
 export const SearchTradeoffs = z.object({
@@ -346,10 +464,8 @@ export const SearchTradeoffs = z.object({
   total: z.number().int().nonnegative(),
   capped: z.boolean(),
 })
-export const SearchAnswerSchema = z.object({
-  results: z.array(SearchResultSchema), considered: z.number(), elapsedMs: z.number(), explanation: z.string(),
-  tradeoffs: SearchTradeoffs,
-})
+/** The API's search answer: the catalog's, with the scatter's points. */
+export const SearchAnswerSchema = CatalogSearchAnswer.extend({ tradeoffs: SearchTradeoffs })
 export const SearchJobStart = z.object({ id: z.string().min(1), status: z.enum(['running', 'done']), cached: z.boolean() })
 export const SearchJobState = z.object({
   id: z.string().min(1),
@@ -388,6 +504,8 @@ export const responseContract = {
   'POST /api/auth/password-reset': z.object({ status: z.literal('accepted'), message: z.string() }),
   'POST /api/auth/signup': Session,
   'POST /api/auth/signin': Session,
+  /** Single sign-on's hand-over: the session the callback left in its cookie, collected once. */
+  'POST /api/auth/oidc/session': Session,
   'GET /api/auth/me': z.object({ user: User }),
   'GET /api/users': z.object({ users: z.array(User) }),
   'PATCH /api/users/:id/role': z.object({ user: User }),
@@ -432,8 +550,7 @@ export const responseContract = {
   'GET /api/shared/:token': configurationBody,
   'GET /api/shared/:token/check': CheckResult,
   'GET /api/shared/:token/datasheet': datasheetBody,
-  // landed by another issue at the same time; only its envelope is held here so far
-  'GET /api/compare': z.object({ comparison: z.record(z.string(), z.unknown()) }),
+  'GET /api/compare': z.object({ comparison: Comparison }),
   'POST /api/search': SearchAnswerSchema.extend({ cached: z.boolean().optional() }),
   'POST /api/searches': SearchJobStart,
   'GET /api/searches/:id': SearchJobState,
@@ -441,7 +558,47 @@ export const responseContract = {
 
 export type ContractRoute = keyof typeof responseContract
 
+/**
+ * The routes that answer no JSON body when they succeed, and what they answer instead: a
+ * file (a model, a drawing, a CSV, a PDF, a photo), an event stream, an empty 204 or a
+ * redirect. With responseContract this names every route; the contract test fails on a
+ * registered route in neither.
+ */
+export const bodilessRoutes: Readonly<Record<string, 'file' | 'event-stream' | 'empty' | 'redirect'>> = {
+  // a part's files, from its entry, a saved configuration or a share link
+  ...Object.fromEntries(['/api/entries/:id', '/api/configurations/:id', '/api/shared/:token'].flatMap((base) =>
+    ['stl', '3mf', 'dxf', 'svg', 'curve.csv', 'datasheet.pdf'].map((file) => [`GET ${base}/${file}`, 'file' as const]))),
+  'GET /api/reports/:id/file': 'file',
+  'GET /api/reports/:id/photo': 'file',
+  'GET /api/compare/csv': 'file',
+  'GET /api/compare/pdf': 'file',
+  'GET /api/audit/csv': 'file',
+  'GET /api/searches/:id/events': 'event-stream',
+  'GET /api/auth/oidc/start': 'redirect',
+  'GET /api/auth/oidc/callback': 'redirect',
+  'POST /api/auth/signout': 'empty',
+  'POST /api/auth/password': 'empty',
+  'POST /api/auth/password-reset/confirm': 'empty',
+  'DELETE /api/searches/:id': 'empty',
+  'DELETE /api/configurations/:id': 'empty',
+  'DELETE /api/configurations/:id/share': 'empty',
+}
+
 /** Routes whose failure is not ErrorBody: readiness answers 503 with the same body, naming the failed check. */
 export const failureContract: Readonly<Record<string, z.ZodType>> = {
   'GET /api/ready': readiness,
 }
+
+// ── the catalog's types, pinned ──────────────────────────────────────────────────────
+// Each schema above that describes a catalog type must agree with it both ways.
+void (true satisfies Same<z.infer<typeof ParamSpecSchema>, ParamSpec>)
+void (true satisfies Same<z.infer<typeof MetricSpecSchema>, MetricSpec>)
+void (true satisfies Same<z.infer<typeof CurveSchema>, Curve>)
+void (true satisfies Same<z.infer<typeof EvaluationSchema>, Evaluation>)
+void (true satisfies Same<z.infer<typeof ForceWindowSchema>, ForceWindow>)
+void (true satisfies Same<z.infer<typeof JudgementSchema>, Judgement>)
+void (true satisfies Same<z.infer<typeof PrintabilityReportSchema>, PrintabilityReport>)
+void (true satisfies Same<z.infer<typeof ShelfEntrySchema>, ShelfEntry>)
+void (true satisfies Same<z.infer<typeof ConfirmationSchema>, Confirmation>)
+void (true satisfies Same<z.infer<typeof SearchResultSchema>, SearchResult>)
+void (true satisfies Same<z.infer<typeof CatalogSearchAnswer>, SearchAnswer>)

@@ -5,6 +5,7 @@
  * out row by row with the best of each row marked where "best" has a direction.
  */
 import { z } from 'zod'
+import type * as contract from '../../contract/api'
 import Papa from 'papaparse'
 import type { AppContext } from '../context'
 import type { User } from '../db'
@@ -48,31 +49,10 @@ function betterDirection(key: string): 'higher' | 'lower' | null {
   return null
 }
 
-interface ComparedCandidate {
-  label: string
-  source: { kind: 'result'; entryId: number; params: Record<string, number | string> } | { kind: 'saved'; configurationId: number; name: string }
-  check: CheckResult
-}
-
-interface MetricRow {
-  key: string
-  label: string
-  unit: string
-  values: Array<number | boolean | null>
-  /** Low and high over the tolerance band, per candidate. */
-  bands: Array<[number, number] | null>
-  better: 'higher' | 'lower' | null
-  /** Index of the best value (null when there is no direction or fewer than two numbers). */
-  best: number | null
-}
-
-export interface Comparison {
-  candidates: ComparedCandidate[]
-  metrics: MetricRow[]
-  /** Printability side by side: each check's label and its status per candidate. */
-  printability: Array<{ id: string; label: string; statuses: Array<string | null>; levels: Array<'ok' | 'warn' | 'fail' | null> }>
-  cautions: string[]
-}
+// The answer's shape is the wire contract's (contract/api.ts).
+type ComparedCandidate = z.infer<typeof contract.ComparedCandidate>
+type MetricRow = Comparison['metrics'][number]
+export type Comparison = z.infer<typeof contract.Comparison>
 
 const COMPARISON_CAUTIONS = [
   'Every figure is an estimate from a published model and nominal material data: confirm it on printed parts.',
