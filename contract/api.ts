@@ -10,6 +10,7 @@
  * one and not the other fails the type check.
  */
 import { z } from 'zod'
+import { WIDE_BEAM_MODES } from '../catalog/mechanics/wide-beam'
 import type { CurveComparison } from '../catalog/calibration'
 import type { PrintabilityReport } from '../catalog/printability'
 import type { Curve, Evaluation, MetricSpec, ModuleKind, ParamSpec } from '../catalog/schema/types'
@@ -98,11 +99,15 @@ const EvaluationSchema = z.object({
   family: z.string(),
   method: z.string(),
   params: paramValues,
-  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number() }),
+  material: z.object({ id: z.string().nullable(), name: z.string(), modulus: z.number(), strainLimit: z.number(), poissonRatio: z.number() }),
   curve: CurveSchema,
   metrics: z.record(z.string(), metricValue),
   warnings: z.array(z.string()),
   source: z.string(),
+  /** The wide-beam rule as the model applied it (families that bend beams). */
+  bending: z.object({
+    wideBeam: z.enum(WIDE_BEAM_MODES), poissonRatio: z.number(), depthOverThickness: z.number(), factor: z.number(), modulus: z.number(), statement: z.string(),
+  }).optional(),
 })
 
 // ── entries ──────────────────────────────────────────────────────────────────────────
