@@ -9,6 +9,7 @@ import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { buildGeometry, defineFamily, evaluate, families, findBuiltinMaterial, getFamily, registerFamily, searchShelfSync, serializeStl, type Shelf } from '../../catalog'
 import { estimateAllowance } from '../../catalog/search/estimate-tolerance'
+import { estimatorFor } from '../../catalog/search/estimators'
 import { computeDesignMap } from '../../web/src/composables/designMapCompute'
 import { trialCantilever } from '../families/trial-cantilever'
 import { bearer, signInAs, startTestApp, type TestApp } from './helpers'
@@ -112,6 +113,8 @@ describe('a family registered from its folder', () => {
     const shelf: Shelf = [{ id: 'trial', familyId: ID, name: 'Trial cantilever', summary: '', tags: [], materials: ['petg'], defaultParams: { length: 20, thickness: 1, depth: 6 }, ranges: { length: [10, 40], thickness: [0.6, 2] }, status: 'released' }]
     // a soft spring: 0.2–0.4 N/mm, which the blade reaches only near its long and thin corner
     const answer = searchShelfSync({ kind: 'spring', stiffness: { min: 0.2, max: 0.4 }, limit: 3 }, shelf, { budget: 400, confirm: 1 })
+    // the engine takes the folder's estimator through the registry, not its fallback over the model
+    expect(estimatorFor(getFamily(ID))).toBe(trialCantilever.search!.estimator)
     expect(answer.results.length).toBeGreaterThan(0)
     for (const r of answer.results) {
       expect(r.family).toBe(ID)
