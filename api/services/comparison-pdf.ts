@@ -34,42 +34,58 @@ export function renderComparisonPdf(comparison: Comparison, options: { compress?
   doc.font('semibold').fontSize(15).fillColor(INK).text(`Comparison of ${candidates.length} candidate${candidates.length === 1 ? '' : 's'}`, 36, 32)
   doc.font('regular').fontSize(8).fillColor(MUTED).text(`Flexshelf · ${new Date().toISOString().slice(0, 10)} · estimates to be confirmed on printed parts`, 36, 52)
 
-  // curves: displacement against force, each candidate's band shaded and its nominal line
-  const plot = { x: 66, y: 76, w: 300, h: 190 }
-  let xMax = 0, yMin = 0, yMax = 0
-  for (const c of candidates) {
-    const d = c.check.band.curve.displacement
-    xMax = Math.max(xMax, ...d)
-    yMax = Math.max(yMax, ...c.check.band.curve.high, ...c.check.evaluation.curve.force)
-    yMin = Math.min(yMin, ...c.check.band.curve.low, ...c.check.evaluation.curve.force)
-  }
-  if (!(xMax > 0)) xMax = 1
-  if (!(yMax > yMin)) yMax = yMin + 1
-  const px = (x: number) => plot.x + (x / xMax) * plot.w
-  const py = (y: number) => plot.y + plot.h - ((y - yMin) / (yMax - yMin)) * plot.h
-  doc.lineWidth(0.5).strokeColor(LINE).rect(plot.x, plot.y, plot.w, plot.h).stroke()
-  if (yMin < 0) doc.moveTo(plot.x, py(0)).lineTo(plot.x + plot.w, py(0)).stroke()
+  // curves: displacement against force, each candidate's band shaded and its nominal line; one
+  // plot per axis pair, so a hinge (degrees, N·mm) is never drawn on a switch's mm and N
+  const area = { x: 66, y: 76, w: 300, h: 190 }
+  const groups = new Map<string, number[]>()
   candidates.forEach((c, i) => {
-    const colour = CANDIDATE_COLOURS[i % CANDIDATE_COLOURS.length]
-    const { displacement: d, low, high } = c.check.band.curve
-    if (d.length > 1) {
-      doc.moveTo(px(d[0]), py(high[0]))
-      for (let k = 1; k < d.length; k++) doc.lineTo(px(d[k]), py(high[k]))
-      for (let k = d.length - 1; k >= 0; k--) doc.lineTo(px(d[k]), py(low[k]))
-      doc.closePath().fillOpacity(0.14).fill(colour).fillOpacity(1)
-    }
-    const curve = c.check.evaluation.curve
-    doc.moveTo(px(curve.displacement[0]), py(curve.force[0]))
-    for (let k = 1; k < curve.displacement.length; k++) doc.lineTo(px(curve.displacement[k]), py(curve.force[k]))
-    doc.lineWidth(1.2).strokeColor(colour).stroke()
+    const a = c.check.evaluation.curve.axes
+    const key = `${a.displacement.label}|${a.displacement.unit}|${a.force.label}|${a.force.unit}`
+    groups.set(key, [...(groups.get(key) ?? []), i])
   })
-  const axes = candidates[0].check.evaluation.curve.axes
-  doc.font('regular').fontSize(7).fillColor(MUTED)
-  doc.text(`${fmt(yMax)}`, plot.x - 28, plot.y - 3, { width: 24, align: 'right' })
-  doc.text(`${fmt(yMin)}`, plot.x - 28, plot.y + plot.h - 4, { width: 24, align: 'right' })
-  doc.text(`0`, plot.x - 2, plot.y + plot.h + 3)
-  doc.text(`${fmt(xMax)}`, plot.x + plot.w - 30, plot.y + plot.h + 3, { width: 30, align: 'right' })
-  doc.text(`${axes.displacement.label} (${axes.displacement.unit}) → · ${axes.force.label} (${axes.force.unit}) ↑ · bands: manufacturing tolerance`, plot.x, plot.y + plot.h + 14, { width: plot.w })
+  const gap = 30
+  const plotH = (area.h - gap * (groups.size - 1)) / groups.size
+  let plotBottom = area.y
+  ;[...groups.values()].forEach((members, g) => {
+    const plot = { x: area.x, y: area.y + g * (plotH + gap), w: area.w, h: plotH }
+    let xMax = 0, yMin = 0, yMax = 0
+    for (const i of members) {
+      const c = candidates[i]
+      xMax = Math.max(xMax, ...c.check.band.curve.displacement)
+      yMax = Math.max(yMax, ...c.check.band.curve.high, ...c.check.evaluation.curve.force)
+      yMin = Math.min(yMin, ...c.check.band.curve.low, ...c.check.evaluation.curve.force)
+    }
+    if (!(xMax > 0)) xMax = 1
+    if (!(yMax > yMin)) yMax = yMin + 1
+    const px = (x: number) => plot.x + (x / xMax) * plot.w
+    const py = (y: number) => plot.y + plot.h - ((y - yMin) / (yMax - yMin)) * plot.h
+    doc.lineWidth(0.5).strokeColor(LINE).rect(plot.x, plot.y, plot.w, plot.h).stroke()
+    if (yMin < 0) doc.moveTo(plot.x, py(0)).lineTo(plot.x + plot.w, py(0)).stroke()
+    for (const i of members) {
+      const c = candidates[i]
+      const colour = CANDIDATE_COLOURS[i % CANDIDATE_COLOURS.length]
+      const { displacement: d, low, high } = c.check.band.curve
+      if (d.length > 1) {
+        doc.moveTo(px(d[0]), py(high[0]))
+        for (let k = 1; k < d.length; k++) doc.lineTo(px(d[k]), py(high[k]))
+        for (let k = d.length - 1; k >= 0; k--) doc.lineTo(px(d[k]), py(low[k]))
+        doc.closePath().fillOpacity(0.14).fill(colour).fillOpacity(1)
+      }
+      const curve = c.check.evaluation.curve
+      doc.moveTo(px(curve.displacement[0]), py(curve.force[0]))
+      for (let k = 1; k < curve.displacement.length; k++) doc.lineTo(px(curve.displacement[k]), py(curve.force[k]))
+      doc.lineWidth(1.2).strokeColor(colour).stroke()
+    }
+    const axes = candidates[members[0]].check.evaluation.curve.axes
+    doc.font('regular').fontSize(7).fillColor(MUTED)
+    doc.text(`${fmt(yMax)}`, plot.x - 28, plot.y - 3, { width: 24, align: 'right' })
+    doc.text(`${fmt(yMin)}`, plot.x - 28, plot.y + plot.h - 4, { width: 24, align: 'right' })
+    doc.text(`0`, plot.x - 2, plot.y + plot.h + 3)
+    doc.text(`${fmt(xMax)}`, plot.x + plot.w - 30, plot.y + plot.h + 3, { width: 30, align: 'right' })
+    const which = groups.size > 1 ? ` · candidates ${members.map((i) => i + 1).join(', ')}` : ''
+    doc.text(`${axes.displacement.label} (${axes.displacement.unit}) across · ${axes.force.label} (${axes.force.unit}) up · bands: manufacturing tolerance${which}`, plot.x, plot.y + plot.h + 12, { width: plot.w })
+    plotBottom = plot.y + plot.h
+  })
 
   // legend and parameters
   let y = 76
@@ -85,7 +101,7 @@ export function renderComparisonPdf(comparison: Comparison, options: { compress?
   })
 
   // metrics table
-  y = Math.max(y, plot.y + plot.h + 34)
+  y = Math.max(y, plotBottom + 34)
   const col0 = 170
   const colW = (W - 72 - col0) / candidates.length
   // one page whatever the family: a longer metrics list is set smaller (8 pt down to 6.5 pt)
@@ -104,7 +120,9 @@ export function renderComparisonPdf(comparison: Comparison, options: { compress?
     const unit = m.unit && m.unit !== 'boolean' ? ` ${m.unit}` : ''
     row(`${m.label}${m.better ? ` (${m.better} is better)` : ''}`, m.values.map((v, i) => {
       const b = m.bands[i]
-      return `${fmt(v)}${unit}${b ? ` (band ${fmt(b[0])} to ${fmt(b[1])})` : ''}${m.best === i ? '  ✓ best' : ''}`
+      // a figure the candidate's family does not give is a dash alone, without the row's unit
+      if (v === null || v === undefined) return '–'
+      return `${fmt(v)}${unit}${b ? ` (band ${fmt(b[0])} to ${fmt(b[1])})` : ''}${m.best === i ? '  (best)' : ''}`
     }), m.best)
   }
   for (const p of printability) row(`Printability: ${p.label}`, p.levels.map((l) => l ?? 'not checked'), null)

@@ -79,5 +79,10 @@ describe('GET /api/compare/csv and /pdf', () => {
     expect(pdf.pageCount).toBe(1)
     expect(pdf.text).toContain('Thin switch (saved)')
     expect(pdf.text).toContain('best')
+    // a hinge (rotation, moment) gets its own plot beside the switches' (displacement, force)
+    expect(pdf.text).toMatch(/Rotation \(deg\) across/)
+    expect(pdf.text).toMatch(/candidates 3\b/)
+    // marks the page's fonts (IBM Plex Sans Latin) have no glyph for are not written
+    expect(pdf.text).not.toMatch(/[✓→]/)
   })
 })
