@@ -80,7 +80,7 @@ describe('POST /api/entries', () => {
       const entry = res.body.entry
       expect(entry).toMatchObject({ status: 'draft', name: DRAFT.name, familyId: 'bistable-beam', ranges: DRAFT.ranges, proposalForId: null, revisions: [], reports: [], comments: [], owner: { displayName: 'Bram Kettleby' } })
       // postLength was not given: the family default (0) is stored, so a diff sees every parameter
-      expect(entry.defaultParams).toEqual({ ...DRAFT.defaultParams, postLength: 0 })
+      expect(entry.defaultParams).toEqual({ ...DRAFT.defaultParams, postLength: 0, wideBeam: 'auto' })
       expect(await auditOf(entry.id)).toEqual([{ action: 'entry.created', from: null, to: 'draft', actorId: await userId('contributor') }])
     })
   })
