@@ -8,7 +8,7 @@
  */
 import { families as registry } from '../registry'
 import { builtinMaterials } from '../materials'
-import { DEFAULT_WIDE_BEAM } from '../mechanics/wide-beam'
+import { DEFAULT_WIDE_BEAM, type WideBeamMode } from '../mechanics/wide-beam'
 import { poissonRatioOf } from '../schema/validate'
 import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'
@@ -92,6 +92,12 @@ function startRun(window: ForceWindow, shelf: Shelf, options: SearchOptions & { 
   }
 }
 
+/** The wide-beam rule an entry's configurations get: its defaults' choice, else the default ('auto'). */
+function wideBeamOf(unit: Unit): WideBeamMode {
+  if (!unit.family.bendsBeams) return 'off'
+  return unit.entry.defaultParams.wideBeam === 'off' ? 'off' : DEFAULT_WIDE_BEAM
+}
+
 function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): CandidateContext {
   const { family, material } = unit
   return {
@@ -99,8 +105,8 @@ function contextOf(unit: Unit, window: ForceWindow, compiled: CompiledWindow): C
     estimator: estimatorFor(family),
     modulus: material.modulus,
     strainLimit: material.strainLimit,
-    // the default wide-beam rule, as the exact check's evaluate applies it
-    bending: { poissonRatio: poissonRatioOf(material), wideBeam: DEFAULT_WIDE_BEAM },
+    // the entry's wide-beam rule (its defaults may turn it off), as the exact check applies it
+    bending: { poissonRatio: poissonRatioOf(material), wideBeam: wideBeamOf(unit) },
     tolerance: resolveTolerance(window.tolerance),
     compiled,
     footprint: window.footprint,
@@ -399,7 +405,7 @@ function* confirmAnswers(run: SearchRun, groups: Group[]): Generator<void, { res
       if (!confirming) uncertainChecks++
       run.progress(run.units.length, 'confirming')
       const check = exactCheck(window, compiled, s.unit.family, s.unit.material, s.params, s.score.nominal ?? {}, tolerance, materials, uncertain,
-        decisive || !s.score.low || !s.score.high ? null : { low: s.score.low, high: s.score.high })
+        decisive || !s.score.low || !s.score.high ? null : { low: s.score.low, high: s.score.high }, wideBeamOf(s.unit))
       yield
       if (check.contradiction) {
         dropped.push({ entryId: s.unit.entry.id, entryName: s.unit.entry.name, params: { ...s.params, material: s.unit.material.id }, reason: check.contradiction, uncertain })

@@ -8,6 +8,7 @@
  * result this way whatever its rank.
  */
 import { evaluateFamily } from '../evaluate'
+import { DEFAULT_WIDE_BEAM, type WideBeamMode } from '../mechanics/wide-beam'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
 import { MODULUS_RANGE } from '../tolerance/corners'
 import { judge, scoreBand, strainHolds, type CompiledWindow, type ForceWindow } from '../window'
@@ -73,13 +74,15 @@ export function exactCheck(
    * Null: every tolerance corner is solved exactly.
    */
   fastBand: { low: Record<string, MetricValue>; high: Record<string, MetricValue> } | null = null,
+  /** The entry's wide-beam rule (search estimated with the same). */
+  wideBeam: WideBeamMode = DEFAULT_WIDE_BEAM,
 ): ExactCheck {
   const method = exactMethodOf(family)
   const keys = [...new Set([...compiled.metrics, 'bistable', 'safetyFactor'])]
   const layout = estimatorFor(family).layout
   const power = (k: string) => (layout ? layout.modulusPower[layout.keys.indexOf(k)] ?? 0 : 0)
   const walls = family.params.filter((p) => p.role === 'wall')
-  const run = (p: Record<string, number>) => evaluateFamily(family, { ...p, material: material.id }, { method, materials: [...materials] }).metrics
+  const run = (p: Record<string, number>) => evaluateFamily(family, { ...p, material: material.id, ...(family.bendsBeams ? { wideBeam } : {}) }, { method, materials: [...materials] }).metrics
   let exact: Record<string, MetricValue>
   try {
     exact = run(params)

@@ -136,3 +136,26 @@ describe('spring search: the band and the ranking, recomputed here', () => {
 function materialModulus(id: string): number {
   return builtinMaterials.find((m) => m.id === id)!.modulus
 }
+
+describe('search keeps the entry\'s wide-beam rule', () => {
+  // A wide switch (depth 6 mm over a 0.7 mm beam, 8.6 × deeper than thick): with the plate-action
+  // correction on, bending stiffness is E/(1−ν²) (Timoshenko & Woinowsky-Krieger, Theory of Plates
+  // and Shells, cylindrical bending), about 17 % above plain beam theory for PETG (ν 0.38).
+  const wide = { span: 60, apexHeight: 2.1, thickness: 0.7, depth: 6, postLength: 0 }
+  const plainPeak = evaluate('bistable-beam', { ...wide, material: 'petg', wideBeam: 'off' }).metrics.peakForce as number
+  // a window the plain-beam peak sits in and the plate-stiffened one (× 1/(1 − 0.38²) ≈ 1.17) misses
+  const window = { kind: 'bistable', peakForce: { min: 0.92 * plainPeak, max: 1.06 * plainPeak }, tolerance: { thickness: 0.001, modulus: 0.005 } }
+  const entry = (wideBeam: 'auto' | 'off'): ShelfEntry => ({ ...fixedSwitch(`wide-${wideBeam}`, wide), defaultParams: { ...wide, material: 'petg', wideBeam } })
+
+  it('an entry whose defaults turn the correction off is estimated and confirmed by plain beam theory', () => {
+    const answer = searchShelfSync(window, [entry('off')], { confirm: 1 })
+    expect(answer.results).toHaveLength(1)
+    const confirmed = answer.results[0].confirmed!.metrics!.peakForce as number
+    expect(Math.abs(confirmed / plainPeak - 1)).toBeLessThan(1e-6)
+  })
+
+  it('the same geometry under the default rule is stiffer by the plate factor and misses the window', () => {
+    expect(1 / (1 - 0.38 ** 2), "the factor alone takes the peak out of the window").toBeGreaterThan(1.06 / 0.92)
+    expect(searchShelfSync(window, [entry('auto')], { confirm: 1 }).results).toEqual([])
+  })
+})
