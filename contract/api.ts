@@ -83,6 +83,8 @@ export const Family = z.object({
   cautions: z.array(z.string()),
   /** The two parameters the design map sweeps first (x across, y up), or null for the map's own choice. */
   designMap: z.object({ sweep: z.tuple([z.string(), z.string()]) }).nullable(),
+  /** The family bends beams and takes `wideBeam` ('auto' | 'off'). */
+  bendsBeams: z.boolean(),
 })
 
 export const Material = z.object({

@@ -18,6 +18,8 @@ export function toFamilyView(family: FamilyDefinition): FamilyView {
     axes: family.axes,
     cautions: family.cautions,
     designMap: family.designMap ?? null,
+    // the family takes `wideBeam` ('auto' | 'off'): the configure form offers the choice
+    bendsBeams: family.bendsBeams === true,
   }
 }
 

@@ -30,7 +30,8 @@ describe('GET /api/families', () => {
         expect(observed.methods).toEqual(family.methods)
         expect(observed.rules).toEqual(family.rules.map((r) => ({ fields: r.fields })))
         expect(observed.designMap).toEqual(family.designMap ?? null)
-        expect(Object.keys(observed).sort()).toEqual(['axes', 'cautions', 'defaultMethod', 'designMap', 'id', 'kind', 'methods', 'metrics', 'name', 'params', 'rules', 'summary'])
+        expect(observed.bendsBeams).toBe(family.bendsBeams === true)
+        expect(Object.keys(observed).sort()).toEqual(['axes', 'bendsBeams', 'cautions', 'defaultMethod', 'designMap', 'id', 'kind', 'methods', 'metrics', 'name', 'params', 'rules', 'summary'])
       }
     })
   })

@@ -91,6 +91,7 @@ export function mergeParams(defaults: Record<string, number | string>, given: Re
   for (const [key, value] of Object.entries(given)) {
     if (typeof value === 'number' && Number.isFinite(value)) out[key] = value
     else if (key === 'material' && typeof value === 'string') out.material = value
+    else if (key === 'wideBeam' && (value === 'auto' || value === 'off')) out.wideBeam = value
   }
   return out
 }

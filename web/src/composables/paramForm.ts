@@ -24,9 +24,13 @@ export interface ParamField {
 
 export type ParamModel = Record<string, number | null>
 
+type WideBeamChoice = 'auto' | 'off'
+
 export interface ParamFormModel {
   values: ParamModel
   material: string | null
+  /** For a family that bends beams: the plate-action correction on ('auto') or off; absent otherwise. */
+  wideBeam?: WideBeamChoice
 }
 
 /** The family's limits intersected with the entry's allowed range (ignored if they do not overlap). */
@@ -66,14 +70,15 @@ export function paramFields(params: readonly ParamSpec[], ranges: ParamRanges = 
 }
 
 /** Starting values: the entry's defaults where given, else the family's own. */
-export function initialParamModel(params: readonly ParamSpec[], defaults: Record<string, number | string> = {}, materials: readonly string[] = []): ParamFormModel {
+export function initialParamModel(params: readonly ParamSpec[], defaults: Record<string, number | string> = {}, materials: readonly string[] = [], bendsBeams = false): ParamFormModel {
   const values: ParamModel = {}
   for (const spec of params) {
     const given = defaults[spec.key]
     values[spec.key] = typeof given === 'number' && Number.isFinite(given) ? given : spec.default
   }
   const material = typeof defaults.material === 'string' ? defaults.material : materials[0] ?? null
-  return { values, material }
+  if (!bendsBeams) return { values, material }
+  return { values, material, wideBeam: defaults.wideBeam === 'off' ? 'off' : 'auto' }
 }
 
 /** Problems the browser can see before asking the server: empty, out of range, not whole. */
@@ -116,6 +121,7 @@ export function evaluationParams(form: ParamFormModel): Record<string, number | 
   const params: Record<string, number | string> = {}
   for (const [key, value] of Object.entries(form.values)) if (typeof value === 'number') params[key] = value
   if (form.material) params.material = form.material
+  if (form.wideBeam) params.wideBeam = form.wideBeam
   return params
 }
 

@@ -65,7 +65,7 @@ export function useConfiguration(source: Ref<ConfigurationSource>, options: { de
       const linked = s.kind === 'entry' ? readLinkedConfiguration(s.query) : null
       if (linked) linkProblems.value = linked.problems
       const given = config ? config.params : linked?.params ?? null
-      form.value = initialParamModel(f.params, mergeParams(found.defaultParams, given), found.materials)
+      form.value = initialParamModel(f.params, mergeParams(found.defaultParams, given), found.materials, f.bendsBeams)
       settings.value = settingsFrom(f.kind, config ?? linked, found.revisions.find((r) => r.id === found.currentRevision?.id)?.method ?? f.defaultMethod)
       if (settings.value.method && !f.methods.some((m) => m.id === settings.value!.method)) settings.value.method = f.defaultMethod
       savedJson = config ? JSON.stringify(buildConfiguration(f.kind, form.value, settings.value)) : null
@@ -167,7 +167,7 @@ export function useConfiguration(source: Ref<ConfigurationSource>, options: { de
     const e = entry.value
     const f = family.value
     if (!e || !f) return
-    form.value = initialParamModel(f.params, e.defaultParams, e.materials)
+    form.value = initialParamModel(f.params, e.defaultParams, e.materials, f.bendsBeams)
   }
 
   /** Applies a printability fix; false when the parameter changed since the check. */

@@ -46,7 +46,7 @@ export function useEntryPage(id: Ref<string>) {
       form.value = null
       return
     }
-    form.value = initialParamModel(f.params, e.defaultParams, e.materials)
+    form.value = initialParamModel(f.params, e.defaultParams, e.materials, f.bendsBeams)
     method.value = revision.value?.method ?? f.defaultMethod
   }
 

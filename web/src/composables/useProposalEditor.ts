@@ -46,7 +46,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
     familyId.value = fid
     about.value = aboutOf(source)
     const f = fid ? reference.family(fid) : undefined
-    form.value = f ? initialParamModel(f.params, source?.defaultParams ?? {}, source?.materials ?? []) : null
+    form.value = f ? initialParamModel(f.params, source?.defaultParams ?? {}, source?.materials ?? [], f.bendsBeams) : null
     ranges.value = f ? initialRangeModel(f.params, source?.ranges ?? {}) : {}
   }
 
@@ -88,7 +88,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
   function chooseFamily(id: string) {
     familyId.value = id
     const f = reference.family(id)
-    form.value = f ? initialParamModel(f.params, {}, about.value.materials) : null
+    form.value = f ? initialParamModel(f.params, {}, about.value.materials, f.bendsBeams) : null
     ranges.value = f ? initialRangeModel(f.params) : {}
   }
 
@@ -96,7 +96,7 @@ export function useProposalEditor(mode: Ref<ProposalMode>) {
     const f = family.value
     if (!f) return
     const source = entry.value ?? target.value
-    form.value = initialParamModel(f.params, source?.defaultParams ?? {}, about.value.materials)
+    form.value = initialParamModel(f.params, source?.defaultParams ?? {}, about.value.materials, f.bendsBeams)
   }
 
   // the default material is one the proposal recommends: the first, when the current one is not

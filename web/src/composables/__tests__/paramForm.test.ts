@@ -45,6 +45,12 @@ describe('initialParamModel', () => {
     expect(initialParamModel([span], {}, ['petg']).material).toBe('petg')
     expect(initialParamModel([span], {}, []).material).toBeNull()
   })
+  it('a family that bends beams starts from the entry\'s wide-beam rule, "auto" when it names none; others get no such field', () => {
+    expect(initialParamModel([span], { wideBeam: 'off' }, ['petg'], true).wideBeam).toBe('off')
+    expect(initialParamModel([span], {}, ['petg'], true).wideBeam).toBe('auto')
+    expect(initialParamModel([span], { wideBeam: 'sideways' }, ['petg'], true).wideBeam).toBe('auto')
+    expect('wideBeam' in initialParamModel([span], { wideBeam: 'off' }, ['petg'])).toBe(false)
+  })
   it('ignores a non-numeric default', () => {
     expect(initialParamModel([span], { span: 'wide' }).values.span).toBe(40)
   })
@@ -89,6 +95,9 @@ describe('splitIssues', () => {
 describe('evaluationParams', () => {
   it('sends the numbers and the material, skipping empty fields', () => {
     expect(evaluationParams({ values: { span: 40, thickness: null }, material: 'petg' })).toEqual({ span: 40, material: 'petg' })
+  })
+  it('sends the wide-beam choice when the form has one', () => {
+    expect(evaluationParams({ values: { span: 40 }, material: 'petg', wideBeam: 'off' })).toEqual({ span: 40, material: 'petg', wideBeam: 'off' })
   })
 })
 

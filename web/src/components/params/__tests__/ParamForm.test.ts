@@ -10,10 +10,10 @@ const specs: ParamSpec[] = [
 ]
 const petg: Material = { id: 'petg', name: 'PETG (FDM)', process: 'FDM', modulus: 2000, poissonRatio: 0.38, poissonRatioSource: '', strainLimit: 0.02, density: 1.27, notes: '', source: '' }
 
-function render(errors: Record<string, string> = {}) {
+function render(errors: Record<string, string> = {}, extra: { wideBeam?: 'auto' | 'off' } = {}) {
   return mount(ParamForm, {
     props: {
-      modelValue: { values: { span: 40, apexHeight: 3 }, material: 'petg' },
+      modelValue: { values: { span: 40, apexHeight: 3 }, material: 'petg', ...extra },
       fields: paramFields(specs, { span: [32, 48] }),
       materials: [petg],
       methods: [{ id: 'nonlinear-fe', label: 'Nonlinear beam finite elements', source: '' }, { id: 'closed-form', label: 'Closed form', source: '' }],
@@ -23,6 +23,15 @@ function render(errors: Record<string, string> = {}) {
 }
 
 describe('ParamForm', () => {
+  it('offers the wide-beam choice only for a family that bends beams, with the plate factor for the material', () => {
+    expect(render().find('#param-wideBeam').exists()).toBe(false)
+    const wrapper = render({}, { wideBeam: 'auto' })
+    expect(wrapper.find('label[for="param-wideBeam"]').text()).toBe('Wide-beam correction')
+    // 1/(1 − ν²) for PETG's ν 0.38 (Timoshenko & Woinowsky-Krieger, cylindrical bending): 1.169
+    expect(wrapper.find('#param-wideBeam-help').text()).toContain('1.17 × for ν 0.38')
+    expect(render({}, { wideBeam: 'off' }).find('#param-wideBeam-help').text()).toContain('Plain beam theory')
+  })
+
   it('labels every input, shows its unit and the range narrowed for the entry', () => {
     const wrapper = render()
     for (const key of ['span', 'apexHeight', 'material', 'method']) {
