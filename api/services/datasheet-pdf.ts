@@ -90,7 +90,7 @@ interface Column {
   align?: 'left' | 'right'
 }
 
-const ROW_HEIGHT = 13
+const ROW_HEIGHT = 12
 const tableHeight = (rows: number) => ROW_HEIGHT * (rows + 1) + 6
 
 function table(doc: Doc, columns: Column[], rows: string[][]): void {
@@ -334,7 +334,9 @@ function judgement(doc: Doc, sheet: Datasheet): void {
 
   heading(doc, `Printability on a ${fmt(sheet.printability.printer.nozzle)} mm nozzle at ${fmt(sheet.printability.printer.layer)} mm layers (common practice)`)
   for (const c of sheet.printability.checks) bullet(doc, `${c.level === 'ok' ? 'OK' : c.level === 'warn' ? 'Check' : 'Fails'}: ${c.message}`, { color: c.level === 'fail' ? DANGER : c.level === 'warn' ? WARNING : INK })
-  for (const note of sheet.printability.notes) bullet(doc, note, { size: 8, color: MUTED })
+  // the general printing notes are set tight (they are the same for every part) so the
+  // judgement, method, warnings and cautions keep to the second page
+  for (const note of sheet.printability.notes) bullet(doc, note, { size: 7.5, color: MUTED, lineGap: -0.5 })
   paragraph(doc, `These printing rules are ${sheet.printability.basis}.`, { size: 8, color: MUTED })
 
   heading(doc, 'Method and source')
