@@ -23,7 +23,7 @@ export interface Scored {
   volume: number
 }
 
-export function scoredOf(unit: Unit, params: Record<string, number>, score: CandidateScore): Scored {
+function scoredOf(unit: Unit, params: Record<string, number>, score: CandidateScore): Scored {
   const env = unit.family.envelope(params)
   return { unit, params: { ...params }, score, area: env.x * env.y, volume: env.x * env.y * env.z }
 }

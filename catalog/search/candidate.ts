@@ -20,7 +20,7 @@ import type { ForceWindow, ManufacturingTolerance } from '../window/schema'
 import type { Estimate, EstimateLayout, FastEstimator, FillFn } from './estimators'
 
 /** What judging reads of a family: its rules, and its envelope when the window has a footprint. */
-export type JudgedFamily = Pick<FamilyDefinition, 'rules'> & Partial<Pick<FamilyDefinition, 'envelope'>>
+type JudgedFamily = Pick<FamilyDefinition, 'rules'> & Partial<Pick<FamilyDefinition, 'envelope'>>
 
 export interface CandidateContext {
   family: JudgedFamily
@@ -55,7 +55,7 @@ export interface CandidateScore {
 }
 
 /** Fraction of the footprint left in the better quarter-turn, or null without a footprint. */
-export function footprintMargin(footprint: ForceWindow['footprint'], x: number, y: number): number | null {
+function footprintMargin(footprint: ForceWindow['footprint'], x: number, y: number): number | null {
   if (!footprint || (footprint.length === undefined && footprint.width === undefined)) return null
   const fit = (along: number, across: number) => Math.min(
     footprint.length === undefined ? Infinity : (footprint.length - along) / footprint.length,
@@ -156,20 +156,6 @@ function footprintReason(footprint: ForceWindow['footprint'], env: { x: number; 
   if (!footprint || footprint.length === undefined) return 'footprint.width'
   if (footprint.width === undefined) return 'footprint.length'
   return Math.max(env.x, env.y) > footprint.length ? 'footprint.length' : 'footprint.width'
-}
-
-/** Judges a candidate as search does; see CandidateJudge for repeated use. */
-export function scoreCandidate(ctx: CandidateContext, params: Record<string, number>, keys: string[]): CandidateScore {
-  return judgeFor(ctx, keys).score(params)
-}
-
-const judges = new WeakMap<CandidateContext, { keys: string[]; judge: CandidateJudge }>()
-function judgeFor(ctx: CandidateContext, keys: string[]): CandidateJudge {
-  const held = judges.get(ctx)
-  if (held && held.keys.length === keys.length && held.keys.every((k, i) => k === keys[i])) return held.judge
-  const judge = new CandidateJudge(ctx, keys)
-  judges.set(ctx, { keys: [...keys], judge })
-  return judge
 }
 
 /** Where judging stopped: the rules, the footprint, the estimate, the nominal verdict, the band. */

@@ -15,7 +15,7 @@
 import type { FamilyDefinition } from '../schema/types'
 
 /** A configuration is a close variant when every parameter is within this fraction (or one step). */
-export const CLOSE_FRACTION = 0.03
+const CLOSE_FRACTION = 0.03
 
 export interface Foldable {
   /** Entry and material: what a group is. */

@@ -28,13 +28,13 @@ import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, 
 import { describeResult } from './why'
 
 /** Candidates sampled per entry and material when the options give no budget. */
-export const DEFAULT_BUDGET = 6000
+const DEFAULT_BUDGET = 6000
 /** Results confirmed with the exact method when the options do not say. */
-export const DEFAULT_CONFIRM = 5
+const DEFAULT_CONFIRM = 5
 /** Exact checks of uncertain estimates beyond the confirmed results, per search (each solves every wall corner exactly). */
-export const UNCERTAIN_CHECKS = 4
+const UNCERTAIN_CHECKS = 4
 /** Seeds per entry and material that the local search refines. */
-export const REFINE_SEEDS = 3
+const REFINE_SEEDS = 3
 /** Candidates between two checkpoints (progress, cancellation). */
 const YIELD_EVERY = 1024
 
@@ -518,7 +518,7 @@ export function searchShelfSync(rawWindow: unknown, shelf: Shelf, options: Searc
 }
 
 /** Slice of work between two yields to the event loop in the asynchronous run, ms. */
-export const TIME_SLICE_MS = 15
+const TIME_SLICE_MS = 15
 
 const macrotask = () => new Promise<void>((resolve) => (typeof setImmediate === 'function' ? setImmediate(resolve) : setTimeout(resolve, 0)))
 

@@ -10,7 +10,7 @@ import type { FamilyDefinition } from '../schema/types'
 
 // The estimator's shape is part of the family contract (a family folder may carry one).
 import type { FastEstimator } from '../schema/types'
-export type { Estimate, EstimateFn, EstimateLayout, FastEstimator, FillFn } from '../schema/types'
+export type { Estimate, EstimateLayout, FastEstimator, FillFn } from '../schema/types'
 
 /** Built-in family id → its folder's dedicated estimator (registered families: dedicatedEstimatorFor). */
 export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Object.freeze(
@@ -20,7 +20,7 @@ export const dedicatedEstimators: Readonly<Record<string, FastEstimator>> = Obje
 const EXACT_METHOD = 'nonlinear-fe'
 
 /** The cheap method of a family: the first that is not the nonlinear solver. */
-export function fastMethodOf(family: FamilyDefinition): string {
+function fastMethodOf(family: FamilyDefinition): string {
   return (family.methods.find((m) => m.id !== EXACT_METHOD) ?? family.methods[0]).id
 }
 

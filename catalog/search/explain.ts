@@ -7,7 +7,7 @@ import type { SearchMaterial, ShelfEntry } from './types'
 import { num, pct } from './why'
 
 /** The candidate that came nearest (the engine's scored candidate, as the explanation reads it). */
-export interface NearestCandidate {
+interface NearestCandidate {
   unit: { entry: ShelfEntry; family: FamilyDefinition; material: SearchMaterial }
   params: Record<string, number>
   score: CandidateScore
@@ -25,7 +25,7 @@ export interface Tally {
   considered: number
 }
 
-export function reasonLabel(window: ForceWindow, reason: string): string {
+function reasonLabel(window: ForceWindow, reason: string): string {
   const [key, side] = reason.split('.')
   const q = quantitiesOf(window.kind).find((x) => x.key === key)
   if (q) return `${q.label.toLowerCase()} ${side === 'min' ? 'below' : 'above'} the window`

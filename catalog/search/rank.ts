@@ -52,6 +52,3 @@ export function compareRankParts(ma: number, sa: number, areaA: number, volumeA:
   return marginB - marginA
 }
 
-export function compareRank(a: Rankable, b: Rankable): number {
-  return compareRankKeys(rankKey(a), rankKey(b), a.windowMargin, b.windowMargin)
-}

@@ -9,7 +9,7 @@ import type { CandidateJudge } from './candidate'
 import { snapToStep, type Axis } from './sampling'
 
 /** Evaluations allowed per refinement. */
-export const REFINE_EVALUATIONS = 160
+const REFINE_EVALUATIONS = 160
 
 export interface Refined {
   params: Record<string, number>

@@ -8,7 +8,7 @@ import { PRINT_HEIGHT_KEYS, printableHeights, printableWalls, type PrinterRules 
 import type { FamilyDefinition, ParamSpec } from '../schema/types'
 import type { ShelfEntry } from './types'
 
-export type AxisKind = 'wall' | 'height' | 'count' | 'continuous' | 'fixed'
+type AxisKind = 'wall' | 'height' | 'count' | 'continuous' | 'fixed'
 
 export interface Axis {
   spec: ParamSpec
@@ -42,7 +42,7 @@ function levels(spec: ParamSpec, lo: number, hi: number, n: number): number[] {
 }
 
 /** n values of a sorted list, evenly picked, ends kept. */
-export function thin(values: number[], n: number): number[] {
+function thin(values: number[], n: number): number[] {
   if (values.length <= n) return values
   if (n <= 1) return [values[Math.floor(values.length / 2)]]
   const out = new Set<number>()

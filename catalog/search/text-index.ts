@@ -17,9 +17,9 @@ interface IndexedEntry {
 }
 
 /** Names weigh most, then tags, then family words; summaries and materials count once. */
-export const FIELD_BOOSTS = { name: 3, tags: 2, family: 1.5, summary: 1, materials: 1 }
+const FIELD_BOOSTS = { name: 3, tags: 2, family: 1.5, summary: 1, materials: 1 }
 /** Edit distance allowed per term, as a fraction of its length (0.2: one typo in five letters). */
-export const FUZZY = 0.2
+const FUZZY = 0.2
 
 export interface TextHit {
   entryId: string | number

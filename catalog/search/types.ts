@@ -5,7 +5,7 @@
 import type { ParamRanges } from '../schema/validate'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
 
-export type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired'
+type EntryStatus = 'draft' | 'in_review' | 'released' | 'retired'
 
 export interface ShelfEntry {
   id: string | number

@@ -1,5 +1,4 @@
 /** Plain sentences: why a result ranks where it does. */
-import type { FamilyDefinition } from '../schema/types'
 import { judge, quantitiesOf, type ForceWindow, type MetricBand, type WindowRange } from '../window'
 import type { CandidateScore } from './candidate'
 import type { Confirmation, SearchMaterial } from './types'
@@ -7,13 +6,13 @@ import type { Confirmation, SearchMaterial } from './types'
 export const num = (v: number) => (Math.abs(v) >= 100 ? v.toFixed(0) : Number(v.toPrecision(3)).toString())
 export const pct = (v: number) => `${Math.round(v * 100)} %`
 
-export function rangeText(r: WindowRange, unit: string): string {
+function rangeText(r: WindowRange, unit: string): string {
   if (r.min !== undefined && r.max !== undefined) return `${num(r.min)}–${num(r.max)} ${unit}`
   return r.min !== undefined ? `at least ${num(r.min)} ${unit}` : `at most ${num(r.max!)} ${unit}`
 }
 
 /** "peak force 3.42–4.61 N within 3–5 N" for every quantity the window bounds. */
-export function bandSentence(window: ForceWindow, band: MetricBand): string[] {
+function bandSentence(window: ForceWindow, band: MetricBand): string[] {
   const parts: string[] = []
   for (const q of quantitiesOf(window.kind)) {
     const range = (window as unknown as Record<string, WindowRange | undefined>)[q.key]
@@ -59,6 +58,3 @@ export function describeResult(
   return text
 }
 
-export function familyLabel(family: FamilyDefinition): string {
-  return family.name
-}

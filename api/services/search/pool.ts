@@ -34,13 +34,13 @@ export interface RunOptions {
  * A search past its budget is first asked to stop (the search is time-sliced and reads the
  * cancel between slices); a thread still busy this long after is terminated and replaced.
  */
-export const BUDGET_GRACE_MS = 250
+const BUDGET_GRACE_MS = 250
 /** Old-generation heap of one search thread, MB: a runaway search ends its thread, not the server. */
-export const SEARCH_THREAD_HEAP_MB = 512
+const SEARCH_THREAD_HEAP_MB = 512
 /** Searches one thread interleaves before further ones wait in the queue. */
-export const SEARCHES_PER_THREAD = 8
+const SEARCHES_PER_THREAD = 8
 /** Searches waiting per thread before a new one is refused as busy. */
-export const SEARCH_QUEUE_PER_THREAD = 16
+const SEARCH_QUEUE_PER_THREAD = 16
 
 /** Longest wait, once a search has ended, for its last progress message, ms. */
 const PORT_DRAIN_MS = 200
@@ -48,7 +48,7 @@ const PORT_DRAIN_MS = 200
 const ENTRY = new URL('./worker-entry.mjs', import.meta.url)
 
 /** One thread per core beyond the one serving requests, at least one and at most two. */
-export const DEFAULT_POOL_SIZE = Math.max(1, Math.min(2, availableParallelism() - 1))
+const DEFAULT_POOL_SIZE = Math.max(1, Math.min(2, availableParallelism() - 1))
 
 /** A failure the thread reported itself (passed on as it is). */
 class OutcomeError extends Error {}

@@ -19,13 +19,13 @@ import { loadShelf, type ShelfSnapshot } from './shelf'
 import { tradeoffsOf } from './tradeoffs'
 
 /** Answers kept; a window's answer is a few kilobytes. */
-export const CACHE_CAPACITY = 200
+const CACHE_CAPACITY = 200
 /** Running searches one user may have at once, over both routes (POST /api/search and jobs). */
-export const MAX_RUNNING_PER_USER = 3
+const MAX_RUNNING_PER_USER = 3
 /** A finished job is kept this long for a late or repeated events request, ms. */
-export const FINISHED_JOB_TTL_MS = 10 * 60_000
+const FINISHED_JOB_TTL_MS = 10 * 60_000
 
-export type { ApiSearchAnswer, JobEvent, JobStatus, SearchJobRecord as SearchJob } from './jobs'
+export type { ApiSearchAnswer, JobEvent } from './jobs'
 
 /** What GET /api/searches/:id answers: the job's state, and its result or error once it has ended. */
 export interface SearchJobView {

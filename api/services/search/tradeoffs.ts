@@ -10,7 +10,7 @@ import { findFamily, type SearchAnswer } from '../../../catalog'
 /** Points sent at most; listed results always come first, then the best close variants. */
 export const MAX_TRADEOFF_POINTS = 400
 
-export interface TradeoffPoint {
+interface TradeoffPoint {
   entryId: string | number
   entryName: string
   family: string
