@@ -5,19 +5,35 @@
  */
 import jscad from '@jscad/modeling'
 import type { Geom3 } from '@jscad/modeling/src/geometries/types'
+import { snappedMesh } from '../geometry/stl'
 
 const { geometries, modifiers } = jscad
 // the package's .d.ts re-exports generalize as a module namespace; at run time it is the function
 const generalize = modifiers.generalize as unknown as (options: { snap: boolean; triangulate: boolean }, solid: Geom3) => Geom3
 
 export interface IndexedMesh {
-  /** x, y, z per vertex, mm. */
-  vertices: number[]
+  /** x, y, z per vertex, mm. Shared by every reader of the solid: not to be changed. */
+  readonly vertices: readonly number[]
   /** Three vertex indices per triangle, counter-clockwise seen from outside. */
-  triangles: number[]
+  readonly triangles: ArrayLike<number>
 }
 
+/**
+ * Meshes of the solids written lately, by the solid (immutable in JSCAD): the 3MF, DXF and
+ * SVG of one part share one.
+ */
+const meshes = new WeakMap<object, IndexedMesh>()
+
 export function indexedMesh(solid: unknown): IndexedMesh {
+  const held = typeof solid === 'object' && solid !== null ? meshes.get(solid) : undefined
+  if (held) return held
+  // the catalog's solids: already the triangles generalize would leave, on its grid, closed
+  const mesh = snappedMesh(solid) ?? generalizedMesh(solid)
+  if (typeof solid === 'object' && solid !== null) meshes.set(solid, mesh)
+  return mesh
+}
+
+function generalizedMesh(solid: unknown): IndexedMesh {
   const triangulated = generalize({ snap: true, triangulate: true }, solid as Geom3)
   const ids = new Map<string, number>()
   const vertices: number[] = []

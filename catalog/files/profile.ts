@@ -28,7 +28,19 @@ function loopArea(loop: readonly Point[]): number {
   return sum / 2
 }
 
+/** Profiles of the solids written lately, by the solid (immutable in JSCAD): a part's DXF and SVG share one. */
+const profiles = new WeakMap<object, Profile>()
+
+/** The solid's profile; the same object for the same solid, so not to be changed. */
 export function profileOf(solid: unknown): Profile {
+  const held = typeof solid === 'object' && solid !== null ? profiles.get(solid) : undefined
+  if (held) return held
+  const profile = readProfile(solid)
+  if (typeof solid === 'object' && solid !== null) profiles.set(solid, profile)
+  return profile
+}
+
+function readProfile(solid: unknown): Profile {
   const { vertices, triangles } = indexedMesh(solid)
   let minZ = Infinity
   let maxZ = -Infinity

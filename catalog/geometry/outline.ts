@@ -303,38 +303,53 @@ function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number
  * split point is a vertex of the outline).
  */
 function conformCap(flat: number[], rings: Point[][], indices: number[]): number[] {
-  const key = (n: number) => `${flat[2 * n]},${flat[2 * n + 1]}`
+  // edges are keyed by the vertices' coordinates, not their indices: where the outline touches
+  // itself one grid point stands at two indices. Each point gets one id, and an edge the number
+  // a·2^21 + b, so no key is a string: a point is keyed by its grid steps from the cap's lowest
+  // corner, fewer than the 3/EPSILON_PER_SIZE steps of the part's box sides (below 2^21).
+  let x0 = Infinity, y0 = Infinity
+  for (let n = 0; n < flat.length; n += 2) { x0 = Math.min(x0, flat[n]); y0 = Math.min(y0, flat[n + 1]) }
+  const ids = new Map<number, number>()
+  const idAt = new Int32Array(flat.length / 2)
+  for (let n = 0; n < idAt.length; n++) {
+    const k = (flat[2 * n] - x0) * GRID_SPAN + (flat[2 * n + 1] - y0)
+    let id = ids.get(k)
+    if (id === undefined) { id = ids.size; ids.set(k, id) }
+    idAt[n] = id
+  }
+  const pointId = (p: Point) => ids.get((p[0] - x0) * GRID_SPAN + (p[1] - y0))!
+  const edge = (a: number, b: number) => a * GRID_SPAN + b
   const tris = [...indices]
   // the outline's edges, the way the walls match them: outer loops clockwise, holes counter-clockwise as seen by the cap
-  const boundary = new Map<string, number>()
-  const edge = (a: string, b: string) => `${a}|${b}`
+  const boundary = new Map<number, number>()
   for (let r = 0; r < rings.length; r++) {
     const ring = orient(rings[r], r === 0 ? 1 : -1)
     for (let k = 0; k < ring.length; k++) {
-      const a = ring[k], b = ring[(k + 1) % ring.length]
-      const e = edge(`${b[0]},${b[1]}`, `${a[0]},${a[1]}`)
+      const e = edge(pointId(ring[(k + 1) % ring.length]), pointId(ring[k]))
       boundary.set(e, (boundary.get(e) ?? 0) + 1)
     }
   }
+  const corners = new Int32Array(3)
   for (let pass = 0; pass < 16; pass++) {
-    const count = new Map(boundary)
-    const owner = new Map<string, number>()
+    // every directed edge of the cap, the walls' partners of the outline included: a triangle's
+    // edge a→b is matched when b→a is among them, by a neighbour or by the wall
+    const present = new Set<number>(boundary.keys())
     for (let t = 0; t < tris.length; t += 3) {
       // counter-clockwise in the plane, as the top cap is written
-      const [i, j, l] = ccw(flat, tris[t], tris[t + 1], tris[t + 2])
-      for (const [a, b] of [[i, j], [j, l], [l, i]]) {
-        const reverse = edge(key(b), key(a))
-        if ((count.get(reverse) ?? 0) > 0) count.set(reverse, count.get(reverse)! - 1)
-        else { const e = edge(key(a), key(b)); count.set(e, (count.get(e) ?? 0) - 1); owner.set(e, t) }
-      }
+      ccwInto(corners, flat, tris[t], tris[t + 1], tris[t + 2])
+      for (let k = 0; k < 3; k++) present.add(edge(idAt[corners[k]], idAt[corners[(k + 1) % 3]]))
     }
+    // the unmatched edges, where a T-junction leaves an edge running past a vertex; the vertex
+    // may be any of the cap's (one where the outline touches itself ends no loose edge), looked
+    // at in the order the triangles name them
     const loose: Array<[number, number, number]> = []
     const ends = new Set<number>()
     for (let t = 0; t < tris.length; t += 3) {
-      const [i, j, l] = ccw(flat, tris[t], tris[t + 1], tris[t + 2])
-      for (const [a, b] of [[i, j], [j, l], [l, i]]) {
-        const e = edge(key(a), key(b))
-        if ((count.get(e) ?? 0) < 0 && owner.get(e) === t) { loose.push([t, a, b]); ends.add(a); ends.add(b) }
+      ccwInto(corners, flat, tris[t], tris[t + 1], tris[t + 2])
+      for (let k = 0; k < 3; k++) {
+        const a = corners[k], b = corners[(k + 1) % 3]
+        ends.add(a); ends.add(b)
+        if (!present.has(edge(idAt[b], idAt[a]))) loose.push([t, a, b])
       }
     }
     if (!loose.length) return tris
@@ -359,6 +374,16 @@ function conformCap(flat: number[], rings: Point[][], indices: number[]): number
     if (!split) return tris
   }
   return tris
+}
+
+/** Base in which two grid coordinates (or two point ids) are packed into one exact number. */
+const GRID_SPAN = 2 ** 21
+
+/** ccw without the array: the triangle's indices counter-clockwise written into `out`. */
+function ccwInto(out: Int32Array, flat: number[], i: number, j: number, l: number): void {
+  const twice = (flat[2 * j] - flat[2 * i]) * (flat[2 * l + 1] - flat[2 * i + 1]) - (flat[2 * j + 1] - flat[2 * i + 1]) * (flat[2 * l] - flat[2 * i])
+  if (twice < 0) { out[0] = j; out[1] = i } else { out[0] = i; out[1] = j }
+  out[2] = l
 }
 
 /** The triangle's indices wound counter-clockwise in the plane. */

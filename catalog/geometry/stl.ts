@@ -15,16 +15,14 @@ const { geometries } = jscad
  * (profiled: 30–45 ms of a bistable frame's 3,900 triangles). Such a solid is snapped and
  * written here in the same binary layout (80-byte header of 'A', triangle count, then per
  * triangle the plane normal, three vertices and a zero attribute word, little-endian): byte
- * for byte what the package writes (a test holds the two equal for every family). Any other
- * solid (a polygon of more than three vertices, a triangle that snapping would flatten, an
- * unpaired edge) goes through the package serializer.
+ * for byte what the package writes (a test holds the two equal for every family), from the
+ * snapped mesh the 3MF, DXF and SVG read too (snappedMesh, kept per solid). Any other solid
+ * (a polygon of more than three vertices, a triangle that snapping would flatten, an unpaired
+ * edge) goes through the package serializer.
  */
 export function serializeStl(solid: unknown): Uint8Array {
-  if (geometries.geom3.isA(solid as Geom3)) {
-    const triangles = snappedTriangles(solid as Geom3)
-    if (triangles && edgesPaired(triangles)) return writeTriangles(triangles)
-  }
-  return packageStl(solid)
+  const mesh = snappedMesh(solid)
+  return mesh ? writeTriangles(mesh) : packageStl(solid)
 }
 
 /** The package serializer's bytes (snap, triangulate, write). */
@@ -40,48 +38,89 @@ export function packageStl(solid: unknown): Uint8Array {
   return out
 }
 
-type Vertex = [number, number, number]
+/**
+ * A solid's triangles as the package's generalize pass (snap, T-junctions, triangulate) would
+ * leave them when that pass changes nothing but the snap: each vertex once, in the order the
+ * triangles first name it, at its snapped coordinates.
+ */
+export interface SnappedMesh {
+  /** x, y, z per vertex, mm, snapped to the solid's epsilon. Shared: not to be changed. */
+  readonly vertices: readonly number[]
+  /** Three vertex indices per triangle, in the solid's own order and winding. */
+  readonly triangles: Int32Array
+}
 
 /**
- * The triangles with their vertices snapped as the package snaps them (vec3.snap to
- * measureEpsilon), or null where it would do more: a polygon that is not a triangle, or one
- * whose snapped area falls to its limit (ε²·√3/4) and would be dropped.
+ * Snapped meshes of the solids written lately, by the solid itself (JSCAD solids are immutable,
+ * so one solid has one mesh): the STL, 3MF, DXF and SVG of a part read the same mesh, and a
+ * solid the cache of built solids lets go is let go here too.
  */
-function snappedTriangles(solid: Geom3): Vertex[][] | null {
+const meshes = new WeakMap<object, SnappedMesh | null>()
+
+/**
+ * The solid's snapped mesh (see SnappedMesh), or null where the package would do more: a
+ * polygon that is not a triangle, one whose snapped area falls to the package's limit
+ * (ε²·√3/4) and would be dropped, or an edge not met by its reverse exactly once (a closed
+ * mesh without T-junctions is one where every directed edge is, and there the package's
+ * T-junction pass inserts nothing).
+ */
+export function snappedMesh(solid: unknown): SnappedMesh | null {
+  if (typeof solid !== 'object' || solid === null || !geometries.geom3.isA(solid as Geom3)) return null
+  if (meshes.has(solid)) return meshes.get(solid)!
+  const mesh = buildSnappedMesh(solid as Geom3)
+  meshes.set(solid, mesh)
+  return mesh
+}
+
+function buildSnappedMesh(solid: Geom3): SnappedMesh | null {
   const epsilon = jscad.measurements.measureEpsilon(solid)
+  const polygons = geometries.geom3.toPolygons(solid)
+  if (!(epsilon > 0) || polygons.length === 0) return null
   const minArea = (epsilon * epsilon * Math.sqrt(3)) / 4
-  const out: Vertex[][] = []
-  for (const p of geometries.geom3.toPolygons(solid)) {
+  const [low, high] = jscad.measurements.measureBoundingBox(solid) as [number[], number[]]
+  // a vertex is keyed by its grid steps from the box's low corner in mixed radix, one radix
+  // per axis: the three sides sum to 3 × 10⁵ steps (measureEpsilon), so the product of the
+  // radices stays near 10¹⁵, exact in a double, and no key is a string
+  const base = low.map((v) => Math.round(v / epsilon) - 1)
+  const radix = high.map((v, k) => Math.round(v / epsilon) - base[k] + 2)
+  const ids = new Map<number, number>()
+  const vertices: number[] = []
+  const triangles = new Int32Array(3 * polygons.length)
+  const corner: Vertex[] = [[0, 0, 0], [0, 0, 0], [0, 0, 0]]
+  for (let t = 0; t < polygons.length; t++) {
+    const p = polygons[t]
     if (p.vertices.length !== 3) return null
-    const t = p.vertices.map((v) => [Math.round(v[0] / epsilon) * epsilon + 0, Math.round(v[1] / epsilon) * epsilon + 0, Math.round(v[2] / epsilon) * epsilon + 0] as Vertex)
-    if (!(Math.abs(geometries.poly3.measureArea(geometries.poly3.create(t))) > minArea)) return null
-    out.push(t)
+    for (let k = 0; k < 3; k++) {
+      const v = p.vertices[k]
+      const ix = Math.round(v[0] / epsilon), iy = Math.round(v[1] / epsilon), iz = Math.round(v[2] / epsilon)
+      const key = ((ix - base[0]) * radix[1] + (iy - base[1])) * radix[2] + (iz - base[2])
+      let id = ids.get(key)
+      if (id === undefined) {
+        id = ids.size
+        ids.set(key, id)
+        // as vec3.snap writes them (the + 0 turns −0 into 0)
+        vertices.push(ix * epsilon + 0, iy * epsilon + 0, iz * epsilon + 0)
+      }
+      triangles[3 * t + k] = id
+      corner[k] = [vertices[3 * id], vertices[3 * id + 1], vertices[3 * id + 2]]
+    }
+    if (!(Math.abs(geometries.poly3.measureArea(geometries.poly3.create(corner))) > minArea)) return null
   }
-  return out
+  return edgesPaired(triangles, ids.size) ? { vertices, triangles } : null
 }
 
 /**
  * Whether every directed edge of the triangles meets its reverse exactly once: a closed mesh
  * without T-junctions (a vertex lying on another triangle's edge leaves that edge unpaired),
- * where the package's T-junction pass inserts nothing. Where the outline touches itself
- * (side posts meeting a ledge) it does insert triangles, and the package path is taken.
+ * where the package's T-junction pass inserts nothing.
  */
-function edgesPaired(triangles: Vertex[][]): boolean {
-  const ids = new Map<string, number>()
-  const id = (v: readonly number[]) => {
-    const key = `${v[0]},${v[1]},${v[2]}`
-    let i = ids.get(key)
-    if (i === undefined) { i = ids.size; ids.set(key, i) }
-    return i
-  }
+function edgesPaired(triangles: Int32Array, vertexCount: number): boolean {
   const open = new Map<number, number>()
-  const tri = new Int32Array(3)
-  for (const t of triangles) {
-    for (let k = 0; k < 3; k++) tri[k] = id(t[k])
+  for (let t = 0; t < triangles.length; t += 3) {
     for (let k = 0; k < 3; k++) {
-      const a = tri[k], b = tri[(k + 1) % 3]
+      const a = triangles[t + k], b = triangles[t + ((k + 1) % 3)]
       // a directed edge counts +1, its reverse −1, keyed by the unordered pair
-      const key = a < b ? a * 2 ** 26 + b : b * 2 ** 26 + a
+      const key = a < b ? a * vertexCount + b : b * vertexCount + a
       const count = (open.get(key) ?? 0) + (a < b ? 1 : -1)
       if (count === 0) open.delete(key)
       else open.set(key, count)
@@ -90,19 +129,27 @@ function edgesPaired(triangles: Vertex[][]): boolean {
   return open.size === 0
 }
 
-function writeTriangles(triangles: Vertex[][]): Uint8Array {
-  const out = new Uint8Array(84 + 50 * triangles.length)
+type Vertex = [number, number, number]
+
+function writeTriangles({ vertices, triangles }: SnappedMesh): Uint8Array {
+  const count = triangles.length / 3
+  const out = new Uint8Array(84 + 50 * count)
   out.fill(65, 0, 80)
   const view = new DataView(out.buffer)
-  view.setUint32(80, triangles.length, true)
+  view.setUint32(80, count, true)
   let at = 84
-  for (const t of triangles) {
-    const plane = geometries.poly3.plane(geometries.poly3.create(t))
+  for (let t = 0; t < triangles.length; t += 3) {
+    const corner: Vertex[] = []
+    for (let k = 0; k < 3; k++) {
+      const i = 3 * triangles[t + k]
+      corner.push([vertices[i], vertices[i + 1], vertices[i + 2]])
+    }
+    const plane = geometries.poly3.plane(geometries.poly3.create(corner))
     view.setFloat32(at, plane[0], true)
     view.setFloat32(at + 4, plane[1], true)
     view.setFloat32(at + 8, plane[2], true)
     at += 12
-    for (const v of t) {
+    for (const v of corner) {
       view.setFloat32(at, v[0], true)
       view.setFloat32(at + 4, v[1], true)
       view.setFloat32(at + 8, v[2], true)
