@@ -86,9 +86,9 @@ export class BestList {
     if (items.length > this.n) items.pop()
   }
 
-  /** Merges another list's items after this one's (a later unit's): bestOf over the concatenation. */
-  merge(other: BestList): void {
-    for (let i = 0; i < other.items.length; i++) {
+  /** Merges another list's first `count` items after this one's (a later unit's): bestOf over the concatenation. */
+  merge(other: BestList, count = other.items.length): void {
+    for (let i = 0; i < Math.min(count, other.items.length); i++) {
       const o = 4 * i
       const item = other.items[i]
       const k = other.keys

@@ -190,6 +190,14 @@ export class CandidateJudge {
   private readonly booleanKey: Uint8Array
   /** Per judged key: 1 when the estimator reports it and its emptiness does not change with the walls. */
   private readonly emptyFixed: Uint8Array
+  /**
+   * Per judged key: 1 when an empty value is the best it can have — every bound of the window
+   * on it is a minimum that an empty value meets without limit (a latch face that locks holds
+   * against any pull) and nothing else reads it — so a box corner may be empty on it.
+   */
+  private readonly emptyBest: Uint8Array
+  /** Per judged key: whether the box being bounded had an empty corner on it. */
+  private readonly emptySeen: Uint8Array
   /** Scoring an optimistic bound (see bound()) rather than a verdict. */
   private optimistic = false
   private readonly nominal: Float64Array
@@ -229,6 +237,11 @@ export class CandidateJudge {
     this.secondKey = ctx.compiled.needsSecondPosition ? keyIndex('secondStablePosition') : -1
     this.bistableKey = keys.indexOf('bistable')
     this.safetyKey = keys.indexOf('safetyFactor')
+    const bounds = ctx.compiled.bounds
+    this.emptyBest = Uint8Array.from(keys, (_key, k) => (
+      this.slotOf[k] >= 0 && !this.booleanKey[k] && k !== this.secondKey && k !== this.bistableKey && k !== this.safetyKey &&
+      bounds.every((b, i) => this.boundKey[i] !== k || (b.nullMeans === 'unbounded' && b.side === 'min')) ? 1 : 0))
+    this.emptySeen = new Uint8Array(n)
     const { thickness: dt, modulus: dE } = ctx.tolerance
     this.thicknessSigns = dt > 0 && ctx.walls.length ? SIGNS : ZERO
     // the corner moduli clamped as catalog/tolerance clamps them, as factors on the nominal
@@ -343,21 +356,25 @@ export class CandidateJudge {
     if (!this.fill || this.ctx.footprint) return null
     const corner = this.shifted
     for (const key in params) corner[key] = params[key]
-    const { low, high, slotOf, booleanKey } = this
+    const { low, high, slotOf, booleanKey, emptyBest, emptySeen } = this
     const n = keys.length
+    emptySeen.fill(0)
     for (let c = 0; c < 1 << n; c++) {
       for (let i = 0; i < n; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       if (!this.estimate(corner, this.corner)) return null
       for (let k = 0; k < slotOf.length; k++) {
         const v = slotOf[k] >= 0 ? this.corner[slotOf[k]] : NaN
+        if (slotOf[k] >= 0 && Number.isNaN(v) && emptyBest[k]) { emptySeen[k] = 1; continue }
         if (slotOf[k] >= 0 && (Number.isNaN(v) || (booleanKey[k] && v !== 1))) return null
         if (c === 0 || v < low[k]) low[k] = v
         if (c === 0 || v > high[k]) high[k] = v
       }
     }
     // optimistic: each bound scored at the hull's better end (sideMargin reads the low end of a
-    // minimum and the high end of a maximum), so the ends are swapped and widened
+    // minimum and the high end of a maximum), so the ends are swapped and widened; a key empty
+    // at some corner, where empty is best, is left empty (every minimum on it met without limit)
     for (let k = 0; k < slotOf.length; k++) {
+      if (emptySeen[k]) { low[k] = NaN; high[k] = NaN; continue }
       if (slotOf[k] < 0 || booleanKey[k]) continue
       const lo = low[k]
       const hi = high[k]

@@ -22,7 +22,7 @@ import { MARGIN_BUCKET, marginRank, SAFETY_BUCKET, SAFETY_CAP, safetyRank } from
 import { BestList, bestOf, rankOf, UnitKeeper, type Scored, type Unit } from './best-list'
 import { distinctAnswers, type DistinctGroup } from './distinct'
 import { refine } from './refine'
-import { entryGrid, GridCursor, gridSize, type Axis } from './sampling'
+import { entryGrid, gridSize, type Axis } from './sampling'
 import { createShelfIndex, type ShelfTextIndex } from './text-index'
 import type { CloseVariant, Confirmation, DroppedResult, RankKey, SearchAnswer, SearchMaterial, SearchOptions, SearchResult, Shelf } from './types'
 import { describeResult } from './why'
@@ -72,6 +72,16 @@ interface SearchRun {
    * candidates are screened against its own list only.
    */
   readonly best: BestList
+  /**
+   * With distinct answers: the leading design of every unit done, the best 2 × limit of them
+   * (what the answer's groups are cut from). Once it is full, a unit none of whose designs
+   * could enter it changes nothing in the answer (UnitSearch.probe).
+   */
+  readonly leads: BestList
+  /** Whether candidates may be screened by bounds (SearchOptions.screen). */
+  readonly screen: boolean
+  /** Set once a candidate was screened out: the reasons and nearest miss then cover only those estimated. */
+  tallyPartial: boolean
   progress(done: number, phase: Phase): void
 }
 
@@ -87,7 +97,7 @@ function startRun(window: ForceWindow, shelf: Shelf, options: SearchOptions & { 
   return {
     started, window, compiled, keys: [...compiled.metrics, 'bistable'], limit, budget: options.budget ?? DEFAULT_BUDGET,
     rules: printerRules(window.printer), materials, distinct: options.distinct !== false, options, tally, units,
-    accepted: [], best: new BestList(limit),
+    accepted: [], best: new BestList(limit), leads: new BestList(2 * limit), screen: options.screen !== false, tallyPartial: false,
     progress: (done, phase) => options.onProgress?.({ done, total: units.length, considered: tally.considered, phase }),
   }
 }
@@ -156,40 +166,28 @@ function* searchUnits(run: SearchRun): Generator<void> {
       if (!run.tally.unprintable.includes(line)) run.tally.unprintable.push(line)
       continue
     }
-    const search = new UnitSearch(run, unit, grid.axes)
+    let search = new UnitSearch(run, unit, grid.axes)
+    if (search.probes()) {
+      const considered = run.tally.considered
+      if (!(yield* search.probe())) {
+        // no design of this unit could lead one of the answer's groups: its candidates are counted, none kept
+        run.tallyPartial = true
+        run.progress(u + 1, 'sampling')
+        yield
+        continue
+      }
+      run.tally.considered = considered
+      search = new UnitSearch(run, unit, grid.axes)
+    }
     yield* search.sample()
     run.progress(u + 0.5, 'refining')
     search.refineSeeds()
     run.accepted.push(...search.mine.items)
     run.best.merge(search.mine)
+    if (run.distinct) run.leads.merge(search.mine, 1)
     run.progress(u + 1, 'sampling')
     yield
   }
-}
-
-/** Smallest blocks worth bounding from their corners: a block of n spanning axes costs 2ⁿ estimates. */
-const MIN_BLOCK_GAIN = 2
-/** Spanning axes in a block at most: a wider box bounds its members more loosely (measured: one screens the most on the bench windows). */
-const MAX_BLOCK_AXES = 1
-
-/**
- * Where the innermost block of the grid starts: the longest run of last axes that hold one
- * value or that the estimator is monotone in, trimmed from the outside while its corners
- * (2ⁿ estimates for n spanning axes) would not be MIN_BLOCK_GAIN times fewer than its members.
- * axes.length when there is no block (no raw-number form, a footprint to check, nothing monotone).
- */
-function blockSplit(axes: Axis[], ctx: CandidateContext): number {
-  const monotone = ctx.estimator.monotoneIn
-  if (!monotone?.length || !ctx.estimator.fill || ctx.footprint) return axes.length
-  let split = axes.length
-  while (split > 0 && (axes[split - 1].values.length === 1 || monotone.includes(axes[split - 1].spec.key))) split--
-  for (; split < axes.length; split++) {
-    const block = axes.slice(split)
-    const spanning = block.filter((a) => a.values.length > 1).length
-    if (spanning > MAX_BLOCK_AXES) continue
-    if (spanning > 0 && gridSize(block) >= MIN_BLOCK_GAIN * 2 ** spanning) break
-  }
-  return split
 }
 
 /**
@@ -197,6 +195,14 @@ function blockSplit(axes: Axis[], ctx: CandidateContext): number {
  * seed, the nearest miss or one of the unit's best), and the refinement of the seeds. The
  * judge holds the verdict of the candidate being considered; a Scored (records, envelope) is
  * built only for the few candidates kept.
+ *
+ * The walk goes by boxes, in the grid's own order (the last axis innermost), so that every
+ * candidate it judges is judged in the same order as a plain walk and the seeds, the lists and
+ * their ties come out the same. A box spans a range of one axis and every value of the axes
+ * inside it; when the estimator is monotone in all of them (FastEstimator.monotoneIn) and
+ * screening applies, the box is bounded from its corners (CandidateJudge.boundBox) and, when
+ * no member could become a seed nor rank, counted without judging any; otherwise it is halved
+ * along its outer axis, down to single candidates, which are bounded one by one.
  */
 class UnitSearch {
   private readonly ctx: CandidateContext
@@ -211,88 +217,185 @@ class UnitSearch {
   private sr = 0
   private area = 0
   private volume = 0
+  // the probe's state: whether it runs (consider() then only looks for a design that could lead) and what it found
+  private probing = false
+  private canLead = false
+  // the box walk: per axis s, the axes a box from s spans (s, then the inner axes of more than one value), their names, whether the estimator is monotone in all of them, their full ranges, and the members per value of s
+  private readonly boxAxes: number[][]
+  private readonly boxNames: string[][]
+  private readonly boxMonotone: boolean[]
+  private readonly boxLows: Float64Array[]
+  private readonly boxHighs: Float64Array[]
+  private readonly innerSize: number[]
+  private readonly params: Record<string, number> = {}
+  private readonly cornerParams: Record<string, number> = {}
+  private sinceYield = 0
 
   constructor(private readonly run: SearchRun, private readonly unit: Unit, private readonly axes: Axis[]) {
     this.ctx = contextOf(unit, run.window, run.compiled)
     this.judge = new CandidateJudge(this.ctx, run.keys)
     this.mine = new BestList(run.limit)
     this.keep = new UnitKeeper(unit, this.judge)
+    // boxes are bounded only where the raw-number estimate is monotone and no footprint is to be checked
+    const monotone = this.ctx.estimator.fill && !this.ctx.footprint ? this.ctx.estimator.monotoneIn ?? [] : []
+    this.boxAxes = axes.map((_, s) => [s, ...axes.slice(s + 1).flatMap((a, i) => (a.values.length > 1 ? [s + 1 + i] : []))])
+    this.boxNames = this.boxAxes.map((list) => list.map((i) => axes[i].spec.key))
+    this.boxMonotone = this.boxNames.map((names) => names.every((key) => monotone.includes(key)))
+    this.boxLows = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.min(...axes[i].values)))
+    this.boxHighs = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.max(...axes[i].values)))
+    this.innerSize = axes.map((_, s) => gridSize(axes.slice(s + 1)))
+  }
+
+  /** The grid walk (see the class), yielding every YIELD_EVERY candidates. */
+  *sample(): Generator<void> {
+    const { axes } = this
+    this.sinceYield = 0
+    if (axes.length && axes.every((a) => a.values.length)) yield* this.walk(0, 0, axes[0].values.length - 1)
+  }
+
+  /** Whether this unit is probed before its search: distinct answers whose leads are full, a raw-number estimator, no footprint. */
+  probes(): boolean {
+    const { run, ctx } = this
+    return run.screen && run.distinct && run.leads.full && !!ctx.estimator.fill && !ctx.footprint
   }
 
   /**
-   * The grid walk, yielding every YIELD_EVERY candidates. The innermost axes the estimator is
-   * monotone in (or that hold one value) form blocks: once screening applies, a whole block
-   * is bounded from its corners (CandidateJudge.boundBox) and, when that bound already rules
-   * every member out, counted without estimating any of them. Otherwise its members are walked
-   * one by one as before, so the answer is the same.
+   * Whether any design this unit's search would keep could enter the answer's leads
+   * (run.leads, full): only then does the unit change the answer (a unit's designs are listed
+   * only when its best leads one of the 2 × limit groups, which are then all first designs).
+   * The grid is walked as sample() walks it, and the seeds refined as refineSeeds() refines
+   * them, so the seeds and every refinement step are the search's own; but a candidate or a
+   * box is passed over once it could become no seed and enter no lead, and the probe stops at
+   * the first design that could lead (the unit is then searched as usual).
    */
-  *sample(): Generator<void> {
-    const { axes, judge, run } = this
-    const split = blockSplit(axes, this.ctx)
-    const params: Record<string, number> = {}
-    const outer = new GridCursor(axes.slice(0, split), params)
-    const blockAxes = axes.slice(split)
-    const inner = new GridCursor(blockAxes, params)
-    const spanning = blockAxes.filter((a) => a.values.length > 1)
-    const keys = spanning.map((a) => a.spec.key)
-    const lows = Float64Array.from(spanning, (a) => Math.min(...a.values))
-    const highs = Float64Array.from(spanning, (a) => Math.max(...a.values))
-    const blockSize = gridSize(blockAxes)
-    let sinceYield = 0
-    while (outer.next()) {
-      if (keys.length && this.screening()) {
-        const couldBeOk = judge.boundBox(params, keys, lows, highs)
-        if (couldBeOk !== null && this.screenedOut(params, couldBeOk, false)) {
-          run.tally.considered += blockSize
-          const before = sinceYield
-          sinceYield += blockSize
-          if (Math.floor(sinceYield / YIELD_EVERY) > Math.floor(before / YIELD_EVERY)) yield
-          continue
+  *probe(): Generator<void, boolean> {
+    this.probing = true
+    this.canLead = false
+    yield* this.sample()
+    if (!this.canLead && this.run.options.refine !== false) {
+      const continuous = this.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
+      if (continuous.length) {
+        for (const seed of this.seeds) {
+          if (this.canLead) break
+          if (seed.score.objective === -Infinity) continue
+          const found = refine(this.judge, continuous, seed.params, seed.score, this.consider)
+          if (found.ok && !this.canLead) {
+            this.judge.judge(found.params)
+            if (this.judge.ok && this.couldLead(found.params)) this.canLead = true
+          }
         }
       }
-      inner.reset()
-      while (inner.next()) {
-        if (++sinceYield % YIELD_EVERY === 0) yield
-        // Once this unit's list or the answer so far is full, and the seeds are, a candidate
-        // whose nominal estimate bounds it out of the seeds and of a full list cannot change the
-        // answer (its band only ranks it lower; the reasons and nearest miss only explain an
-        // empty answer): it is counted, not banded.
-        if (this.screening()) {
-          const couldBeOk = judge.bound(params)
-          if (this.screenedOut(params, couldBeOk, true)) {
-            run.tally.considered++
-            continue
-          }
-          judge.judgeBounded(params)
-        } else judge.judge(params)
-        this.consider(params)
+    }
+    this.probing = false
+    return this.canLead
+  }
+
+  /** The box whose axes before s hold their values in params, axis s spans its values a..b, and the inner axes all theirs. */
+  private *walk(s: number, a: number, b: number): Generator<void> {
+    const { axes, params } = this
+    const values = axes[s].values
+    const key = axes[s].spec.key
+    if (a < b && this.boxMonotone[s] && this.boxScreenedOut(s, a, b)) return
+    const last = s + 1 === axes.length
+    if (a < b && this.boxMonotone[s] && !last && (b - a + 1) * this.innerSize[s] > 2 << this.boxAxes[s].length) {
+      // halved while the halves are still worth bounding
+      const mid = (a + b) >> 1
+      yield* this.walk(s, a, mid)
+      if (!this.canLead) yield* this.walk(s, mid + 1, b)
+      return
+    }
+    for (let i = a; i <= b && !this.canLead; i++) {
+      params[key] = values[i]
+      if (!last) yield* this.walk(s + 1, 0, axes[s + 1].values.length - 1)
+      else {
+        this.point()
+        if (++this.sinceYield >= YIELD_EVERY) { this.sinceYield = 0; yield }
       }
     }
   }
 
-  /** Whether candidates may be screened by bounds: the seeds are full, and this unit's list or the answer so far is. */
-  private screening(): boolean {
-    const { seeds, mine, run } = this
-    return seeds.length >= REFINE_SEEDS && (mine.full || (!run.distinct && run.best.full))
+  /**
+   * Whether the box (see walk) is screened out whole: it is counted and passed over when its
+   * bound from the corners puts no member among the seeds nor in a list. Bounding costs 2ⁿ
+   * estimates for n spanning axes, so only boxes of more members than that are bounded.
+   */
+  private boxScreenedOut(s: number, a: number, b: number): boolean {
+    const members = (b - a + 1) * this.innerSize[s]
+    const names = this.boxNames[s]
+    if (members <= 1 << names.length || !this.screening()) return false
+    const { judge, seeds, params } = this
+    const values = this.axes[s].values
+    const lows = this.boxLows[s], highs = this.boxHighs[s]
+    let lo = Infinity, hi = -Infinity
+    for (let i = a; i <= b; i++) { if (values[i] < lo) lo = values[i]; if (values[i] > hi) hi = values[i] }
+    lows[0] = lo
+    highs[0] = hi
+    const couldBeOk = judge.boundBox(params, names, lows, highs)
+    if (couldBeOk === null || judge.objective > seeds[seeds.length - 1].score.objective) return false
+    if (couldBeOk && this.boxCouldRank(names, lows, highs)) return false
+    this.run.tally.considered += members
+    this.sinceYield += members
+    return true
   }
 
   /**
-   * Whether the bound the judge holds (of one candidate, or of a block) keeps it out of the
-   * seeds and of a full list. A block's rank is bounded by its margin and safety bands only (its
-   * members' envelopes differ); one candidate's also by its envelope.
+   * One candidate of the walk. Once screening applies, a candidate whose nominal estimate
+   * bounds it out of the seeds and of a full list (or, probing, of the leads) cannot change
+   * the answer (its band only ranks it lower; the reasons and nearest miss only explain an
+   * empty answer): it is counted, not banded.
    */
-  private screenedOut(params: Record<string, number>, couldBeOk: boolean, single: boolean): boolean {
-    const { seeds, judge } = this
-    if (judge.objective > seeds[seeds.length - 1].score.objective) return false
-    if (!couldBeOk) return true
-    return single ? !this.couldRank(params) : this.outOnBands()
+  private point(): void {
+    const { judge, params, seeds } = this
+    if (this.screening()) {
+      const couldBeOk = judge.bound(params)
+      if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !(this.probing ? this.couldLead(params) : this.couldRank(params)))) {
+        this.run.tally.considered++
+        return
+      }
+      judge.judgeBounded(params)
+    } else judge.judge(params)
+    this.consider(params)
   }
 
-  /** Whether a full list already ranks ahead of the judge's bound on the margin and safety bands alone. */
-  private outOnBands(): boolean {
-    const { mine, run } = this
+  /** Whether candidates may be screened by bounds: the seeds are full, and (probing) the leads or this unit's list or the answer so far is. */
+  private screening(): boolean {
+    const { seeds, mine, run } = this
+    if (!run.screen || seeds.length < REFINE_SEEDS || !(this.probing || mine.full || (!run.distinct && run.best.full))) return false
+    run.tallyPartial = true
+    return true
+  }
+
+  /** Whether the verdict (or bound) the judge holds for params could enter the full leads. */
+  private couldLead(params: Record<string, number>): boolean {
+    const leads = this.run.leads
     this.bands()
-    return mine.outOnBands(this.m, this.sr) || (!run.distinct && run.best.outOnBands(this.m, this.sr))
+    if (leads.outOnBands(this.m, this.sr)) return false
+    this.envelope(params)
+    return leads.place(this.m, this.sr, this.area, this.volume, this.judge.windowMargin) < leads.n
+  }
+
+  /**
+   * couldRank (probing: couldLead) for the box bound the judge holds: its bands, and the
+   * smallest envelope over the box's corners (the envelope's area and volume are monotone in
+   * the estimator's monotone parameters, a test holds every family to it).
+   */
+  private boxCouldRank(keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean {
+    const { run, mine, params } = this
+    const lists = this.probing ? [run.leads] : !run.distinct ? [mine, run.best] : [mine]
+    this.bands()
+    // out of any one list is out of the answer (see couldRank)
+    if (lists.some((l) => l.outOnBands(this.m, this.sr))) return false
+    const corner = this.cornerParams
+    for (const key in params) corner[key] = params[key]
+    let area = Infinity, volume = Infinity
+    for (let c = 0; c < 1 << keys.length; c++) {
+      for (let i = 0; i < keys.length; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
+      const env = this.unit.family.envelope(corner)
+      if (env.x * env.y < area) area = env.x * env.y
+      if (env.x * env.y * env.z < volume) volume = env.x * env.y * env.z
+    }
+    // a list that is not full takes anything
+    return lists.every((l) => !l.full || l.place(this.m, this.sr, area, volume, this.judge.windowMargin) < l.n)
   }
 
   /** Refines around each seed and offers what each refinement ends on. */
@@ -317,7 +420,9 @@ class UnitSearch {
     const tally = run.tally
     tally.considered++
     keep.reset()
-    if (judge.ok) this.offer(params)
+    if (this.probing) {
+      if (judge.ok && !this.canLead && this.couldLead(params)) this.canLead = true
+    } else if (judge.ok) this.offer(params)
     else {
       tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
       if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)

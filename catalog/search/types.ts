@@ -56,6 +56,13 @@ export interface SearchOptions {
   /** Refine around the best candidates with a local search (default true). */
   refine?: boolean
   /**
+   * Screen candidates by cheap bounds (default true): a candidate, a box of them or a whole
+   * entry in a material that provably cannot change the answer is counted without being
+   * judged in full. False judges every candidate; the answer is the same (a test holds it to
+   * that), only slower.
+   */
+  screen?: boolean
+  /**
    * Fold close variants under the best of them and list the best design of each entry and
    * material first (distinct.ts; default true). False gives the plain ranking of every
    * parameter set, as the engine's regression fixture records it.

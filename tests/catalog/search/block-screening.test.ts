@@ -77,4 +77,50 @@ describe('block screening', () => {
       expect({ ...blocked, elapsedMs: 0 }).toEqual({ ...unblocked, elapsedMs: 0 })
     }
   })
+
+  for (const family of declared) {
+    const keys = estimatorFor(family).monotoneIn!
+    it(`${family.id}: the envelope's area and volume are monotone in ${keys.join(', ')} (a box's smallest envelope is at a corner)`, () => {
+      fc.assert(fc.property(validBase(family), fc.constantFrom(...keys), (base, key) => {
+        const spec = family.params.find((p) => p.key === key)!
+        const areas: number[] = [], volumes: number[] = []
+        for (let i = 0; i <= 8; i++) {
+          const v = spec.min + ((spec.max - spec.min) * i) / 8
+          const env = family.envelope({ ...base, [key]: spec.integer ? Math.round(v) : v })
+          areas.push(env.x * env.y)
+          volumes.push(env.x * env.y * env.z)
+        }
+        if (direction(areas) === null) throw new Error(`area not monotone in ${key}: ${areas.join(', ')}`)
+        if (direction(volumes) === null) throw new Error(`volume not monotone in ${key}: ${volumes.join(', ')}`)
+        return true
+      }), { numRuns: 80 })
+    })
+  }
+
+  // Two hundred entries fill the answer's leads (2 × limit units), so later units are probed
+  // (UnitSearch.probe) and most passed over whole; screen: false judges every candidate.
+  const twoHundred = [...DEMO_SHELF, ...syntheticShelf(200)]
+
+  it('gives the same answers, reasons and count as judging every candidate (screen: false)', () => {
+    for (const window of Object.values(WINDOWS)) {
+      const screened = searchShelfSync(window, twoHundred, { confirm: 0 })
+      const full = searchShelfSync(window, twoHundred, { confirm: 0, screen: false })
+      expect(screened.results.length).toBeGreaterThan(0)
+      expect({ ...screened, elapsedMs: 0 }).toEqual({ ...full, elapsedMs: 0 })
+    }
+  })
+
+  it('estimates about half as often as judging every candidate once the leads are full (the latch window)', () => {
+    let fills = 0
+    const counting = families.map((f) => (f.id === 'snap-hook' && f.search ? {
+      ...f, search: { ...f.search, estimator: { ...f.search.estimator, fill: (...a: Parameters<NonNullable<typeof f.search.estimator.fill>>) => { fills++; return f.search!.estimator.fill!(...a) } } },
+    } : f))
+    const window = WINDOWS['door latch']
+    searchShelfSync(window, twoHundred, { confirm: 0, families: counting })
+    const screened = fills
+    fills = 0
+    searchShelfSync(window, twoHundred, { confirm: 0, families: counting, screen: false })
+    expect(screened).toBeGreaterThan(0)
+    expect(screened).toBeLessThan(0.6 * fills) // measured: about half
+  })
 })
