@@ -80,8 +80,6 @@ interface SearchRun {
   readonly leads: BestList
   /** Whether candidates may be screened by bounds (SearchOptions.screen). */
   readonly screen: boolean
-  /** Set once a candidate was screened out: the reasons and nearest miss then cover only those estimated. */
-  tallyPartial: boolean
   progress(done: number, phase: Phase): void
 }
 
@@ -97,7 +95,7 @@ function startRun(window: ForceWindow, shelf: Shelf, options: SearchOptions & { 
   return {
     started, window, compiled, keys: [...compiled.metrics, 'bistable'], limit, budget: options.budget ?? DEFAULT_BUDGET,
     rules: printerRules(window.printer), materials, distinct: options.distinct !== false, options, tally, units,
-    accepted: [], best: new BestList(limit), leads: new BestList(2 * limit), screen: options.screen !== false, tallyPartial: false,
+    accepted: [], best: new BestList(limit), leads: new BestList(2 * limit), screen: options.screen !== false,
     progress: (done, phase) => options.onProgress?.({ done, total: units.length, considered: tally.considered, phase }),
   }
 }
@@ -171,7 +169,6 @@ function* searchUnits(run: SearchRun): Generator<void> {
       const considered = run.tally.considered
       if (!(yield* search.probe())) {
         // no design of this unit could lead one of the answer's groups: its candidates are counted, none kept
-        run.tallyPartial = true
         run.progress(u + 1, 'sampling')
         yield
         continue
@@ -272,20 +269,7 @@ class UnitSearch {
     this.probing = true
     this.canLead = false
     yield* this.sample()
-    if (!this.canLead && this.run.options.refine !== false) {
-      const continuous = this.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
-      if (continuous.length) {
-        for (const seed of this.seeds) {
-          if (this.canLead) break
-          if (seed.score.objective === -Infinity) continue
-          const found = refine(this.judge, continuous, seed.params, seed.score, this.consider)
-          if (found.ok && !this.canLead) {
-            this.judge.judge(found.params)
-            if (this.judge.ok && this.couldLead(found.params)) this.canLead = true
-          }
-        }
-      }
-    }
+    if (!this.canLead) this.refineSeeds()
     this.probing = false
     return this.canLead
   }
@@ -360,9 +344,7 @@ class UnitSearch {
   /** Whether candidates may be screened by bounds: the seeds are full, and (probing) the leads or this unit's list or the answer so far is. */
   private screening(): boolean {
     const { seeds, mine, run } = this
-    if (!run.screen || seeds.length < REFINE_SEEDS || !(this.probing || mine.full || (!run.distinct && run.best.full))) return false
-    run.tallyPartial = true
-    return true
+    return run.screen && seeds.length >= REFINE_SEEDS && (this.probing || mine.full || (!run.distinct && run.best.full))
   }
 
   /** Whether the verdict (or bound) the judge holds for params could enter the full leads. */
@@ -398,12 +380,13 @@ class UnitSearch {
     return lists.every((l) => !l.full || l.place(this.m, this.sr, area, volume, this.judge.windowMargin) < l.n)
   }
 
-  /** Refines around each seed and offers what each refinement ends on. */
+  /** Refines around each seed and offers what each refinement ends on (probing, until a design could lead). */
   refineSeeds(): void {
     if (this.run.options.refine === false) return
     const continuous = this.axes.filter((a) => a.kind === 'continuous' || a.kind === 'height')
     if (!continuous.length) return
     for (const seed of this.seeds) {
+      if (this.canLead) break
       if (seed.score.objective === -Infinity) continue
       const found = refine(this.judge, continuous, seed.params, seed.score, this.consider)
       if (found.ok) {
@@ -420,10 +403,8 @@ class UnitSearch {
     const tally = run.tally
     tally.considered++
     keep.reset()
-    if (this.probing) {
-      if (judge.ok && !this.canLead && this.couldLead(params)) this.canLead = true
-    } else if (judge.ok) this.offer(params)
-    else {
+    if (judge.ok) this.offer(params)
+    else if (!this.probing) {
       tally.reasons[judge.reason!] = (tally.reasons[judge.reason!] ?? 0) + 1
       if (!tally.nearest || judge.objective > tally.nearest.score.objective) tally.nearest = keep.scored(params)
     }
@@ -438,6 +419,11 @@ class UnitSearch {
 
   /** Enters an accepted candidate into this unit's list where it ranks. */
   private offer(params: Record<string, number>): void {
+    // probing, an accepted candidate only says whether the unit could lead
+    if (this.probing) {
+      if (!this.canLead && this.couldLead(params)) this.canLead = true
+      return
+    }
     const { mine, judge } = this
     this.bands()
     if (mine.outOnBands(this.m, this.sr)) return
