@@ -123,4 +123,17 @@ describe('block screening', () => {
     expect(screened).toBeGreaterThan(0)
     expect(screened).toBeLessThan(0.6 * fills) // measured: about half
   })
+
+  it('bounds boxes whose corners lock the entry face (an empty mating force is the worst, not the best) as judging every candidate does', () => {
+    // entry angles up to 75° with friction up to 0.8 lock the entry face (μ·tan α ≥ 1, the
+    // wedge relation of the snap-fit equations); the retaining face locks at 90°
+    const base = DEMO_SHELF.find((e) => e.familyId === 'snap-hook')!
+    const locking = { ...base, ranges: { ...base.ranges, entryAngle: [40, 75] as [number, number], friction: [0.3, 0.8] as [number, number], retainAngle: [60, 90] as [number, number] } }
+    const shelf = syntheticShelf(60, [locking])
+    const window = { kind: 'latch', matingForce: { max: 20 }, separationForce: { min: 10 }, limit: 20 }
+    const screened = searchShelfSync(window, shelf, { confirm: 0 })
+    const full = searchShelfSync(window, shelf, { confirm: 0, screen: false })
+    expect(screened.results.length).toBeGreaterThan(0)
+    expect({ ...screened, elapsedMs: 0 }).toEqual({ ...full, elapsedMs: 0 })
+  })
 })
