@@ -84,5 +84,5 @@ export function serialize3mf(solid: unknown, meta: PartMetadata): Uint8Array {
     // flat paths: no folder entries, only the three parts OPC names
     '_rels/.rels': strToU8(RELATIONSHIPS),
     '3D/3dmodel.model': strToU8(modelXml(solid, meta)),
-  }, { level: 6, mtime: FIXED_TIME })
+  }, { level: 3, mtime: FIXED_TIME })
 }

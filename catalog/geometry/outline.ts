@@ -24,12 +24,21 @@ export const BEAM_SEGMENTS = 240
 /** Axis-aligned rectangle from its corners (x0 < x1, y0 < y1). */
 export function box(x0: number, y0: number, x1: number, y1: number): Geom2 {
   if (!(x1 > x0 && y1 > y0)) throw new Error(`box corners must be ordered: (${x0}, ${y0}) to (${x1}, ${y1})`)
-  return primitives.polygon({ points: [[x0, y0], [x1, y0], [x1, y1], [x0, y1]] })
+  return polygon([[x0, y0], [x1, y0], [x1, y1], [x0, y1]])
 }
+
+/**
+ * The points each shape made here was made from, so that the outline reads them back as they
+ * are instead of through JSCAD's toOutlines, which rebuilds every loop from its loose sides
+ * (a vertex search per side: 1.6 ms of a bistable frame's two 480-point beams).
+ */
+const pointsOf = new WeakMap<Geom2, Point[]>()
 
 /** A closed polygon from counter-clockwise points. */
 export function polygon(points: Point[]): Geom2 {
-  return primitives.polygon({ points })
+  const shape = primitives.polygon({ points })
+  pointsOf.set(shape, points)
+  return shape
 }
 
 /** A round hole (to subtract) of diameter `diameter` centred at (x, y). */
@@ -150,8 +159,25 @@ export function postedBeamPoints(options: CosineBeamOptions & PostAnchor): Point
 
 /** A geom2's outlines as one clipping polygon (rings closed, as polygon-clipping takes them). */
 function clipPolygon(shape: Geom2): Polygon {
+  const points = pointsOf.get(shape)
+  if (points) return [[...points, points[0]]]
   return (geometries.geom2.toOutlines(shape) as Point[][]).map((ring) => [...ring, ring[0]])
 }
+
+type Bounds = [number, number, number, number]
+
+function boundsOf(polygon: Polygon): Bounds {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity
+  for (const ring of polygon) for (const [x, y] of ring) {
+    if (x < x0) x0 = x
+    if (x > x1) x1 = x
+    if (y < y0) y0 = y
+    if (y > y1) y1 = y
+  }
+  return [x0, y0, x1, y1]
+}
+
+const overlap = (a: Bounds, b: Bounds) => a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3]
 
 /**
  * The outline (union of the solids) − (union of the holes), as polygons: each an outer loop
@@ -161,8 +187,20 @@ function clipPolygon(shape: Geom2): Polygon {
  * trees: less than half the time for a bistable frame with its two 240-segment beams.
  */
 function outlinePolygons(solids: Geom2[], holes: Geom2[]): Point[][][] {
-  let shape = solids.length === 1 ? [clipPolygon(solids[0])] : polygonClipping.union(clipPolygon(solids[0]), ...solids.slice(1).map(clipPolygon))
-  if (holes.length > 0) shape = polygonClipping.difference(shape, ...holes.map(clipPolygon))
+  const parts = solids.map(clipPolygon)
+  const cuts = holes.map(clipPolygon)
+  // (∪S) − (∪H) = ((∪ of the solids a hole's box meets) − ∪H) ∪ (the others), as those others
+  // miss every hole: the holes are cut from the few solids around them (a frame's walls), not
+  // from the union with its long beams, which the sweep would otherwise pass over twice
+  const holeBounds = cuts.map(boundsOf)
+  const near: Polygon[] = [], far: Polygon[] = []
+  for (const part of parts) {
+    const b = boundsOf(part)
+    ;(holeBounds.some((h) => overlap(b, h)) ? near : far).push(part)
+  }
+  const unite = (list: Polygon[]) => (list.length === 1 ? [list[0]] : polygonClipping.union(list[0], ...list.slice(1)))
+  let shape: Polygon[] = cuts.length && near.length ? polygonClipping.difference(unite(near), ...cuts) : near.length ? unite(near) : []
+  if (far.length) shape = shape.length ? polygonClipping.union(shape, ...far) : unite(far)
   // rings come closed (the first point repeated last)
   return shape.map((polygon) => polygon.map((ring) => {
     const closed = ring.length > 1 && ring[0][0] === ring[ring.length - 1][0] && ring[0][1] === ring[ring.length - 1][1]
@@ -273,10 +311,11 @@ function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number
       const l = indices[k + 2]
       // wound counter-clockwise in the plane for the top cap
       if ((flat[2 * j] - flat[2 * i]) * (flat[2 * l + 1] - flat[2 * i + 1]) - (flat[2 * j + 1] - flat[2 * i + 1]) * (flat[2 * l] - flat[2 * i]) < 0) [i, j] = [j, i]
-      const x = (n: number) => flat[2 * n] * epsilon
-      const y = (n: number) => flat[2 * n + 1] * epsilon
-      tri([x(i), y(i), top], [x(j), y(j), top], [x(l), y(l), top])
-      tri([x(i), y(i), 0], [x(l), y(l), 0], [x(j), y(j), 0])
+      const xi = flat[2 * i] * epsilon, yi = flat[2 * i + 1] * epsilon
+      const xj = flat[2 * j] * epsilon, yj = flat[2 * j + 1] * epsilon
+      const xl = flat[2 * l] * epsilon, yl = flat[2 * l + 1] * epsilon
+      tri([xi, yi, top], [xj, yj, top], [xl, yl, top])
+      tri([xi, yi, 0], [xl, yl, 0], [xj, yj, 0])
     }
     for (let r = 0; r < rings.length; r++) {
       // outer loops run counter-clockwise and holes clockwise: the material is on the left

@@ -50,7 +50,20 @@ function fieldSchema(spec: FamilyDefinition['params'][number], range?: [number, 
 }
 
 /** The zod schema of a family's parameters (plus material overrides); unknown keys are refused. */
+/** Each family's schema without entry ranges, built once: building one costs more than parsing with it (every evaluation and file validates). */
+const plainSchemas = new WeakMap<FamilyDefinition, ReturnType<typeof buildParamsSchema>>()
+
 export function paramsSchema(family: FamilyDefinition, ranges?: ParamRanges) {
+  if (ranges) return buildParamsSchema(family, ranges)
+  let schema = plainSchemas.get(family)
+  if (!schema) {
+    schema = buildParamsSchema(family)
+    plainSchemas.set(family, schema)
+  }
+  return schema
+}
+
+function buildParamsSchema(family: FamilyDefinition, ranges?: ParamRanges) {
   const shape: Record<string, z.ZodType> = {}
   for (const spec of family.params) shape[spec.key] = fieldSchema(spec, ranges?.[spec.key])
   shape.material = z.string({ error: 'material must be a material id' }).min(1).max(64).optional()
