@@ -31,6 +31,6 @@ function recordOf(layout: EstimateLayout, fill: FillFn, outside: string): Estima
 }
 
 /** A dedicated estimator from its raw-number fill; `outside` is the message where the fill does not apply. */
-export function dedicatedEstimator(method: string, reproduces: string, exact: boolean, layout: EstimateLayout, fill: FillFn, outside = 'outside the fast estimate\u2019s range', monotoneIn: readonly string[] = []): FastEstimator {
-  return Object.freeze({ method, reproduces, exact, layout, fill, estimate: recordOf(layout, fill, outside), monotoneIn: Object.freeze([...monotoneIn]) })
+export function dedicatedEstimator(method: string, reproduces: string, exact: boolean, layout: EstimateLayout, fill: FillFn, outside = 'outside the fast estimate\u2019s range', monotoneIn: readonly string[] = [], extremesAtEnds = false): FastEstimator {
+  return Object.freeze({ method, reproduces, exact, layout, fill, estimate: recordOf(layout, fill, outside), monotoneIn: Object.freeze([...monotoneIn]), extremesAtEnds })
 }

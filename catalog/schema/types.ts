@@ -206,6 +206,13 @@ export interface FastEstimator {
    * screening). A test samples each estimator to hold it to this.
    */
   monotoneIn?: readonly string[]
+  /**
+   * With monotoneIn: every metric (and the envelope's area and volume) goes one way with all of
+   * those parameters together — it does not rise with one while falling with another — so over
+   * a box of them its extremes lie at the box's lowest corner and its highest corner, and a box
+   * is bounded from those two instead of all 2ⁿ. A test samples boxes to hold it to this.
+   */
+  extremesAtEnds?: boolean
 }
 
 export type { Material }

@@ -346,7 +346,8 @@ export class CandidateJudge {
    * bound() for a whole box of candidates at once, from its corners: `params` holds the box's
    * fixed parameters, and each of `keys` (parameters the estimator is monotone in, see
    * FastEstimator.monotoneIn) spans [lows[i], highs[i]]. Every metric of every member then lies
-   * between its values at the corners (widened by BOX_SLACK for rounding), so scoring each bound
+   * between its values at the corners (at the lowest and highest corner alone where the
+   * estimator's extremes lie at the ends) (widened by BOX_SLACK for rounding), so scoring each bound
    * of the window at the hull's better end bounds every member's bound() from above: `ok` false
    * only when every member certainly fails, objective, margin and safety no lower than any
    * member's. Returns null where no bound is given (no raw-number form, a footprint to check,
@@ -359,7 +360,10 @@ export class CandidateJudge {
     const { low, high, slotOf, booleanKey, emptyBest, emptySeen } = this
     const n = keys.length
     emptySeen.fill(0)
-    for (let c = 0; c < 1 << n; c++) {
+    // every corner, or where the extremes lie at the ends (FastEstimator.extremesAtEnds) the lowest and the highest
+    const last = (1 << n) - 1
+    const step = this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
+    for (let c = 0; c <= last; c += step) {
       for (let i = 0; i < n; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       if (!this.estimate(corner, this.corner)) return null
       for (let k = 0; k < slotOf.length; k++) {

@@ -281,7 +281,7 @@ class UnitSearch {
     const key = axes[s].spec.key
     if (a < b && this.boxMonotone[s] && this.boxScreenedOut(s, a, b)) return
     const last = s + 1 === axes.length
-    if (a < b && this.boxMonotone[s] && !last && (b - a + 1) * this.innerSize[s] > 2 << this.boxAxes[s].length) {
+    if (a < b && this.boxMonotone[s] && !last && (b - a + 1) * this.innerSize[s] > 2 * this.cornersOf(this.boxAxes[s].length)) {
       // halved while the halves are still worth bounding
       const mid = (a + b) >> 1
       yield* this.walk(s, a, mid)
@@ -301,12 +301,13 @@ class UnitSearch {
   /**
    * Whether the box (see walk) is screened out whole: it is counted and passed over when its
    * bound from the corners puts no member among the seeds nor in a list. Bounding costs 2ⁿ
-   * estimates for n spanning axes, so only boxes of more members than that are bounded.
+   * estimates for n spanning axes (2 where the extremes lie at the ends), so only boxes of more
+   * members than that are bounded.
    */
   private boxScreenedOut(s: number, a: number, b: number): boolean {
     const members = (b - a + 1) * this.innerSize[s]
     const names = this.boxNames[s]
-    if (members <= 1 << names.length || !this.screening()) return false
+    if (members <= this.cornersOf(names.length) || !this.screening()) return false
     const { judge, seeds, params } = this
     const values = this.axes[s].values
     const lows = this.boxLows[s], highs = this.boxHighs[s]
@@ -341,6 +342,16 @@ class UnitSearch {
     this.consider(params)
   }
 
+  /** Estimates a bound of a box spanning n axes costs: its 2ⁿ corners, or 2 where the estimator's extremes lie at the ends. */
+  private cornersOf(n: number): number {
+    return this.ctx.estimator.extremesAtEnds && n > 1 ? 2 : 1 << n
+  }
+
+  /** The step from one bounding corner to the next (corner c's bit i: axis i at its high end). */
+  private cornerStep(last: number): number {
+    return this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
+  }
+
   /** Whether candidates may be screened by bounds: the seeds are full, and (probing) the leads or this unit's list or the answer so far is. */
   private screening(): boolean {
     const { seeds, mine, run } = this
@@ -370,7 +381,8 @@ class UnitSearch {
     const corner = this.cornerParams
     for (const key in params) corner[key] = params[key]
     let area = Infinity, volume = Infinity
-    for (let c = 0; c < 1 << keys.length; c++) {
+    const last = (1 << keys.length) - 1
+    for (let c = 0; c <= last; c += this.cornerStep(last)) {
       for (let i = 0; i < keys.length; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       const env = this.unit.family.envelope(corner)
       if (env.x * env.y < area) area = env.x * env.y
@@ -388,7 +400,7 @@ class UnitSearch {
     for (const seed of this.seeds) {
       if (this.canLead) break
       if (seed.score.objective === -Infinity) continue
-      const found = refine(this.judge, continuous, seed.params, seed.score, this.consider)
+      const found = refine(this.judge, continuous, seed.params, seed.score, this.refineStep)
       if (found.ok) {
         this.judge.judge(found.params)
         this.keep.reset()
@@ -397,7 +409,27 @@ class UnitSearch {
     }
   }
 
-  /** Tallies the candidate the judge has just judged, and keeps it where it counts (refine calls it too). */
+  /**
+   * One trial of a refinement, judged and considered as point() judges a grid point, except
+   * that a trial whose bound cannot beat `floor` (the refinement's best so far, see refine)
+   * cannot move the climb either: it is counted, not banded, when it also could become no
+   * seed and enter no list.
+   */
+  private readonly refineStep = (params: Record<string, number>, floor: number): void => {
+    const { judge, seeds } = this
+    if (this.screening()) {
+      const couldBeOk = judge.bound(params)
+      if (judge.objective <= floor && judge.objective <= seeds[seeds.length - 1].score.objective &&
+        (!couldBeOk || !(this.probing ? this.couldLead(params) : this.couldRank(params)))) {
+        this.run.tally.considered++
+        return
+      }
+      judge.judgeBounded(params)
+    } else judge.judge(params)
+    this.consider(params)
+  }
+
+  /** Tallies the candidate the judge has just judged, and keeps it where it counts. */
   readonly consider = (params: Record<string, number>): void => {
     const { judge, keep, seeds, run } = this
     const tally = run.tally

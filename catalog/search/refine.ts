@@ -19,15 +19,18 @@ export interface Refined {
 }
 
 /**
- * `onEvaluated` is called after each trial is judged, with the judge's fields holding its
- * verdict; the params object is reused, so copy it to keep it.
+ * `evaluate(trial, floor)` judges each trial with `judge` and leaves its verdict in the judge's
+ * fields — or, where the trial's objective is certainly no more than `floor` (the best so
+ * far, which it then cannot replace), may leave only an upper bound of it (CandidateJudge.bound):
+ * the climb reads the objective of a trial that beats the floor, and the verdict of none
+ * other. The params object is reused, so copy it to keep it.
  */
 export function refine(
   judge: CandidateJudge,
   axes: Axis[],
   start: Record<string, number>,
   startVerdict: { ok: boolean; objective: number },
-  onEvaluated: (params: Record<string, number>) => void,
+  evaluate: (params: Record<string, number>, floor: number) => void,
 ): Refined {
   let best = { ...start }
   let bestObjective = startVerdict.objective
@@ -46,9 +49,8 @@ export function refine(
         if (Math.abs(v - best[spec.key]) < 1e-12) continue
         for (const key in best) trial[key] = best[key]
         trial[spec.key] = v
-        judge.judge(trial)
         evaluations++
-        onEvaluated(trial)
+        evaluate(trial, bestObjective + 1e-12)
         if (judge.objective > bestObjective + 1e-12) {
           best = { ...trial }
           bestObjective = judge.objective

@@ -50,46 +50,61 @@ function thin(values: number[], n: number): number[] {
   return [...out]
 }
 
-function axisOf(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules, maxLevels: number): Axis | string {
+/**
+ * What an axis is before it is thinned to a number of levels: fixed, or its kind, range and
+ * the printable values it is picked from (null for a continuous one, levelled on its step).
+ */
+type AxisBase =
+  | { fixed: Axis }
+  | { fixed: null; spec: ParamSpec; kind: Exclude<AxisKind, 'fixed'>; lo: number; hi: number; fallback: number; allowed: number[] | null; step: number }
+
+function axisBase(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules): AxisBase | string {
   const given = entry.defaultParams[spec.key]
   const fallback = typeof given === 'number' ? given : spec.default
   const range = entry.ranges[spec.key]
-  if (!range) return { spec, kind: 'fixed', lo: fallback, hi: fallback, values: [fallback] }
+  if (!range) return { fixed: { spec, kind: 'fixed', lo: fallback, hi: fallback, values: [fallback] } }
   const lo = Math.max(spec.min, range[0])
   const hi = Math.min(spec.max, range[1])
-  if (hi <= lo) return { spec, kind: 'fixed', lo, hi: lo, values: [lo] }
-  // The librarian's default is a proven configuration: keep it on the grid when it is printable.
-  const withDefault = (values: number[], allowed: number[] | null) =>
-    fallback >= lo && fallback <= hi && (!allowed || allowed.some((v) => Math.abs(v - fallback) < 1e-9)) && !values.includes(fallback)
-      ? [...values, fallback].sort((a, b) => a - b)
-      : values
+  if (hi <= lo) return { fixed: { spec, kind: 'fixed', lo, hi: lo, values: [lo] } }
   if (spec.role === 'wall') {
     const walls = printableWalls(rules, lo, hi)
     if (!walls.length) return `${spec.label} ${lo}–${hi} ${spec.unit} holds no printable wall on a ${rules.nozzle} mm nozzle (at least ${rules.minimumWall} mm, in ${rules.lineWidth} mm perimeters)`
-    return { spec, kind: 'wall', lo, hi, values: withDefault(thin(walls, maxLevels), walls), step: rules.lineWidth }
+    return { fixed: null, spec, kind: 'wall', lo, hi, fallback, allowed: walls, step: rules.lineWidth }
   }
   if ((PRINT_HEIGHT_KEYS as readonly string[]).includes(spec.key)) {
     const heights = printableHeights(rules, lo, hi)
-    if (heights.length) return { spec, kind: 'height', lo, hi, values: withDefault(thin(heights, maxLevels), heights), step: rules.layer }
+    if (heights.length) return { fixed: null, spec, kind: 'height', lo, hi, fallback, allowed: heights, step: rules.layer }
   }
   if (spec.integer) {
     const counts: number[] = []
     for (let n = Math.ceil(lo); n <= hi; n++) counts.push(n)
-    return { spec, kind: 'count', lo, hi, values: withDefault(thin(counts, maxLevels), counts), step: 1 }
+    return { fixed: null, spec, kind: 'count', lo, hi, fallback, allowed: counts, step: 1 }
   }
-  return { spec, kind: 'continuous', lo, hi, values: withDefault(levels(spec, lo, hi, maxLevels), null), step: spec.step }
+  return { fixed: null, spec, kind: 'continuous', lo, hi, fallback, allowed: null, step: spec.step }
+}
+
+function axisOf(base: Exclude<AxisBase, { fixed: Axis }>, maxLevels: number): Axis {
+  const { spec, kind, lo, hi, fallback, allowed, step } = base
+  const values = allowed ? thin(allowed, maxLevels) : levels(spec, lo, hi, maxLevels)
+  // The librarian's default is a proven configuration: keep it on the grid when it is printable.
+  const withDefault = fallback >= lo && fallback <= hi && (!allowed || allowed.some((v) => Math.abs(v - fallback) < 1e-9)) && !values.includes(fallback)
+    ? [...values, fallback].sort((a, b) => a - b)
+    : values
+  return { spec, kind, lo, hi, values: withDefault, step }
 }
 
 /** Largest levels per axis (at most 9) whose full grid fits the budget. */
 export function entryGrid(family: FamilyDefinition, entry: ShelfEntry, rules: PrinterRules, budget: number): EntryGrid {
+  // each axis's range and printable values once; only the thinning depends on the levels
+  const bases: AxisBase[] = []
+  for (const spec of family.params) {
+    const base = axisBase(spec, entry, rules)
+    if (typeof base === 'string') return { axes: [], problem: base }
+    bases.push(base)
+  }
   let best: Axis[] | null = null
   for (let n = 9; n >= 2; n--) {
-    const axes: Axis[] = []
-    for (const spec of family.params) {
-      const axis = axisOf(spec, entry, rules, n)
-      if (typeof axis === 'string') return { axes: [], problem: axis }
-      axes.push(axis)
-    }
+    const axes = bases.map((base) => base.fixed ?? axisOf(base, n))
     best = axes
     if (gridSize(axes) <= budget) break
   }

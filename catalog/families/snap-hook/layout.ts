@@ -24,16 +24,13 @@ export interface SnapHookLayout {
 }
 
 export function layout(params: Record<string, number>): SnapHookLayout {
-  const { length: l, rootThickness: h0, tipThickness: h1, undercut: u, entryAngle, retainAngle } = params
+  const { length: l, rootThickness: h0, tipThickness: h1, undercut: u, entryAngle } = params
   const taper = (h0 - h1) / l
   const front = (x: number) => h1 + taper * (l - x)
   const top = h1 + u
   const entryTop = l - u / Math.tan(entryAngle * deg)
   const landEnd = entryTop - HEAD_LAND
-  // the retaining face leaves the land at retainAngle and meets the tapered front face:
-  // x·tanβ = landEnd·tanβ − (top − front(x)), solved for x (linear in x)
-  const tanRetain = Math.tan(retainAngle * deg)
-  const retainFoot = retainAngle >= 90 ? landEnd : (landEnd * tanRetain - u + taper * l) / (tanRetain + taper)
+  const retainFoot = retainFootOf(params)
   const head: Point[] = [
     [retainFoot, 0],
     [l, 0],
@@ -45,9 +42,23 @@ export function layout(params: Record<string, number>): SnapHookLayout {
   return { front, head, retainFoot, hole: { x: -BASE_LENGTH / 2, y: h0 / 2, diameter: HOLE_DIAMETER } }
 }
 
+/**
+ * x where the retaining face meets the arm's front face: it leaves the land at retainAngle and
+ * meets the tapered front face, x·tanβ = landEnd·tanβ − (top − front(x)), solved for x (linear
+ * in x). On its own, without the rest of the layout, as the parameter rule checks it for every
+ * candidate a search judges.
+ */
+function retainFootOf(params: Record<string, number>): number {
+  const { length: l, rootThickness: h0, tipThickness: h1, undercut: u, entryAngle, retainAngle } = params
+  const taper = (h0 - h1) / l
+  const landEnd = l - u / Math.tan(entryAngle * deg) - HEAD_LAND
+  const tanRetain = Math.tan(retainAngle * deg)
+  return retainAngle >= 90 ? landEnd : (landEnd * tanRetain - u + taper * l) / (tanRetain + taper)
+}
+
 /** Message when the head would take more than MAX_HEAD_SHARE of the arm (for a cross-field rule), else null. */
 export function headFitProblem(params: Record<string, number>): string | null {
-  const { retainFoot } = layout(params)
+  const retainFoot = retainFootOf(params)
   const headLength = params.length - retainFoot
   if (headLength <= MAX_HEAD_SHARE * params.length) return null
   return `the hook head (${headLength.toPrecision(3)} mm from undercut, entryAngle and retainAngle) must take at most half the arm length (${(MAX_HEAD_SHARE * params.length).toPrecision(3)} mm): use a steeper entryAngle or retainAngle, a smaller undercut or a longer arm`

@@ -48,4 +48,6 @@ export const estimator = dedicatedEstimator('snap-fit-equations', 'snap-fit-equa
   },
   undefined,
   // forces ∝ width and undercut, strain ∝ undercut; the wedge forces grow with the face angle and the friction until the face locks (empty)
-  ['width', 'undercut', 'entryAngle', 'retainAngle', 'friction'])
+  ['width', 'undercut', 'entryAngle', 'retainAngle', 'friction'],
+  // every metric rises with all five or ignores them, but the safety factor, which falls with the undercut alone; the envelope grows with width and undercut
+  true)

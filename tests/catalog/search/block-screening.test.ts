@@ -2,7 +2,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { families } from '../../../catalog'
 import { DEMO_SHELF, estimatorFor, searchShelfSync } from '../../../catalog/search'
-import type { FamilyDefinition } from '../../../catalog/schema/types'
+import type { FamilyDefinition, FastEstimator } from '../../../catalog/schema/types'
 import { syntheticShelf, WINDOWS } from '../../../scripts/bench/search'
 
 // Block screening (engine.ts, CandidateJudge.boundBox) bounds a block of the grid from its
@@ -31,6 +31,63 @@ function direction(values: number[]): number | null {
     dir = s
   }
   return dir
+}
+
+type Fill = NonNullable<FastEstimator['fill']>
+
+/**
+ * Boxes of the monotone parameters around the family's defaults (each side from half to one
+ * and a half times the default, inside the parameter's range; the other parameters at their
+ * defaults), each with one inner point. Returns the first box where a metric (or the
+ * envelope's area or volume) at the inner point leaves the span of its values at the box's
+ * lowest and highest corners, or the inner point is empty where neither end is: what
+ * FastEstimator.extremesAtEnds rules out (the search then bounds a box from those two
+ * corners alone). Also how many boxes were valid (every point passing the rules and inside
+ * the estimate), so that a test can tell a pass from a vacuous one.
+ */
+function endsCounterexample(family: FamilyDefinition, keys: readonly string[], fill: Fill, layoutKeys: readonly string[]): { found: string | null; valid: number } {
+  const defaults = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
+  const box = fc.record(Object.fromEntries(keys.map((key) => {
+    const spec = family.params.find((p) => p.key === key)!
+    const unit = fc.double({ min: 0, max: 1, noNaN: true })
+    return [key, fc.tuple(unit, unit, unit).map(([a, b, t]) => {
+      const at = (v: number) => Math.min(spec.max, Math.max(spec.min, spec.integer ? Math.round(v) : v))
+      const lo = at(spec.default * (0.5 + 0.5 * a)), hi = at(spec.default * (1 + 0.5 * b))
+      return [lo, at(lo + (hi - lo) * t), hi] as const
+    })]
+  }))) as fc.Arbitrary<Record<string, readonly [number, number, number]>>
+  let found: string | null = null
+  let valid = 0
+  const property = fc.property(box, fc.constantFrom(800, 2000, 3500), fc.constantFrom(0.01, 0.03), (spans, E, limit) => {
+    const points = [0, 1, 2].map((i) => ({ ...defaults, ...Object.fromEntries(keys.map((k) => [k, spans[k][i]])) }))
+    if (points.some((p) => family.rules.some((r) => r.check(p) !== null))) return true
+    const outs = points.map(() => new Float64Array(layoutKeys.length))
+    if (!points.every((p, i) => fill(p, E, limit, outs[i], { poissonRatio: 0.38, wideBeam: 'auto' }))) return true
+    valid++
+    const [low, inner, high] = outs
+    const slack = (a: number, b: number) => 1e-9 * Math.max(Math.abs(a), Math.abs(b))
+    for (let slot = 0; slot < layoutKeys.length; slot++) {
+      if (Number.isNaN(low[slot]) || Number.isNaN(high[slot])) continue
+      const lo = Math.min(low[slot], high[slot]), hi = Math.max(low[slot], high[slot])
+      if (Number.isNaN(inner[slot]) || inner[slot] < lo - slack(lo, hi) || inner[slot] > hi + slack(lo, hi)) {
+        found = `${layoutKeys[slot]} is ${inner[slot]} inside a box whose ends give ${low[slot]} and ${high[slot]} (${JSON.stringify(points)})`
+        return false
+      }
+    }
+    const env = points.map((p) => family.envelope(p))
+    const measures = { area: (e: { x: number; y: number }) => e.x * e.y, volume: (e: { x: number; y: number; z: number }) => e.x * e.y * e.z }
+    for (const [name, of] of Object.entries(measures)) {
+      const [a, m, b] = env.map(of)
+      if (m < Math.min(a, b) - slack(a, b)) {
+        found = `the envelope's ${name} is ${m} inside a box whose ends give ${a} and ${b}`
+        return false
+      }
+    }
+    return true
+  })
+  const result = fc.check(property, { numRuns: 400, endOnFailure: true })
+  if (result.failed && !found) throw new Error(`the property failed without a counterexample: ${String(result.errorInstance)}`)
+  return { found, valid }
 }
 
 describe('block screening', () => {
@@ -65,6 +122,28 @@ describe('block screening', () => {
       })
     }
   }
+
+  const atEnds = families.filter((f) => estimatorFor(f).extremesAtEnds)
+
+  it('bounds boxes from their two ends only for the snap hook, whose metrics go one way with all its monotone parameters', () => {
+    expect(atEnds.map((f) => f.id)).toEqual(['snap-hook'])
+  })
+
+  for (const family of atEnds) {
+    const estimator = estimatorFor(family)
+    it(`${family.id}: over a box of ${estimator.monotoneIn!.join(', ')} every metric and the envelope lie between their values at the lowest and highest corners`, () => {
+      const { found, valid } = endsCounterexample(family, estimator.monotoneIn!, estimator.fill!, estimator.layout!.keys)
+      expect(found).toBeNull()
+      expect(valid).toBeGreaterThan(100)
+    })
+  }
+
+  it('finds an inner point outside the ends where a metric rises with one parameter and falls with another', () => {
+    // the snap hook's root strain h·y/(2J l²) rises with the undercut y and falls with the arm length l
+    const hook = families.find((f) => f.id === 'snap-hook')!
+    const estimator = estimatorFor(hook)
+    expect(endsCounterexample(hook, ['undercut', 'length'], estimator.fill!, estimator.layout!.keys).found).toMatch(/^(rootStrain|deflectionForce|matingForce|separationForce|safetyFactor) is /)
+  })
 
   it('gives the same answers as the search without blocks', () => {
     // the same families, their estimators without the declaration (no block is formed)
