@@ -198,6 +198,8 @@ export class CandidateJudge {
   private readonly emptyBest: Uint8Array
   /** Per judged key: whether the box being bounded had an empty corner on it. */
   private readonly emptySeen: Uint8Array
+  /** Per judged key: whether a corner of the box being bounded has given it a value yet (empty included, where empty is not best). */
+  private readonly valueSeen: Uint8Array
   /** Scoring an optimistic bound (see bound()) rather than a verdict. */
   private optimistic = false
   private readonly nominal: Float64Array
@@ -242,6 +244,7 @@ export class CandidateJudge {
       this.slotOf[k] >= 0 && !this.booleanKey[k] && k !== this.secondKey && k !== this.bistableKey && k !== this.safetyKey &&
       bounds.every((b, i) => this.boundKey[i] !== k || (b.nullMeans === 'unbounded' && b.side === 'min')) ? 1 : 0))
     this.emptySeen = new Uint8Array(n)
+    this.valueSeen = new Uint8Array(n)
     const { thickness: dt, modulus: dE } = ctx.tolerance
     this.thicknessSigns = dt > 0 && ctx.walls.length ? SIGNS : ZERO
     // the corner moduli clamped as catalog/tolerance clamps them, as factors on the nominal
@@ -350,16 +353,19 @@ export class CandidateJudge {
    * estimator's extremes lie at the ends) (widened by BOX_SLACK for rounding), so scoring each bound
    * of the window at the hull's better end bounds every member's bound() from above: `ok` false
    * only when every member certainly fails, objective, margin and safety no lower than any
-   * member's. Returns null where no bound is given (no raw-number form, a footprint to check,
-   * a corner outside the estimate, an empty or false value at a corner), else `ok`.
+   * member's. A boolean or an emptiness the same at every corner is the same at every member
+   * (monotone); where the corners differ on one, no bound is given. Returns null where no bound
+   * is given (no raw-number form, a footprint to check, a corner outside the estimate, corners
+   * that differ on a boolean or on being empty, where empty is not best), else `ok`.
    */
   boundBox(params: Record<string, number>, keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean | null {
     if (!this.fill || this.ctx.footprint) return null
     const corner = this.shifted
     for (const key in params) corner[key] = params[key]
-    const { low, high, slotOf, booleanKey, emptyBest, emptySeen } = this
+    const { low, high, slotOf, booleanKey, emptyBest, emptySeen, valueSeen } = this
     const n = keys.length
     emptySeen.fill(0)
+    valueSeen.fill(0)
     // every corner, or where the extremes lie at the ends (FastEstimator.extremesAtEnds) the lowest and the highest
     const last = (1 << n) - 1
     const step = this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
@@ -367,11 +373,15 @@ export class CandidateJudge {
       for (let i = 0; i < n; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       if (!this.estimate(corner, this.corner)) return null
       for (let k = 0; k < slotOf.length; k++) {
-        const v = slotOf[k] >= 0 ? this.corner[slotOf[k]] : NaN
-        if (slotOf[k] >= 0 && Number.isNaN(v) && emptyBest[k]) { emptySeen[k] = 1; continue }
-        if (slotOf[k] >= 0 && (Number.isNaN(v) || (booleanKey[k] && v !== 1))) return null
-        if (c === 0 || v < low[k]) low[k] = v
-        if (c === 0 || v > high[k]) high[k] = v
+        if (slotOf[k] < 0) { low[k] = NaN; high[k] = NaN; continue }
+        const v = this.corner[slotOf[k]]
+        if (Number.isNaN(v) && emptyBest[k]) { emptySeen[k] = 1; continue }
+        if (!valueSeen[k]) { low[k] = v; high[k] = v; valueSeen[k] = 1; continue }
+        // monotone, a boolean or an emptiness the same at every corner is the same inside: an
+        // empty or false value is kept where all corners agree, and voids the bound where not
+        if (Number.isNaN(v) !== Number.isNaN(low[k]) || (booleanKey[k] && v !== low[k])) return null
+        if (v < low[k]) low[k] = v
+        if (v > high[k]) high[k] = v
       }
     }
     // optimistic: each bound scored at the hull's better end (sideMargin reads the low end of a

@@ -224,6 +224,13 @@ class UnitSearch {
   private readonly boxLows: Float64Array[]
   private readonly boxHighs: Float64Array[]
   private readonly innerSize: number[]
+  /** Per axis: whether its walk goes by slabs (walkSlabs: monotone, next to last, the last axis not monotone and of several values). */
+  private readonly slabbed: boolean[]
+  /** Per value of the last axis: whether its slab was screened out. */
+  private readonly slabOut: Uint8Array
+  private readonly slabLow = new Float64Array(1)
+  private readonly slabHigh = new Float64Array(1)
+  private slabNames: string[] = []
   private readonly params: Record<string, number> = {}
   private readonly cornerParams: Record<string, number> = {}
   private sinceYield = 0
@@ -241,6 +248,10 @@ class UnitSearch {
     this.boxLows = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.min(...axes[i].values)))
     this.boxHighs = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.max(...axes[i].values)))
     this.innerSize = axes.map((_, s) => gridSize(axes.slice(s + 1)))
+    const lastAxis = axes[axes.length - 1]
+    this.slabbed = axes.map((axis, s) => s === axes.length - 2 && !this.boxMonotone[s] && monotone.includes(axis.spec.key) && axis.values.length > 1 && lastAxis.values.length > 1)
+    this.slabOut = new Uint8Array(lastAxis?.values.length ?? 0)
+    if (axes.length >= 2) this.slabNames = [axes[axes.length - 2].spec.key]
   }
 
   /** The grid walk (see the class), yielding every YIELD_EVERY candidates. */
@@ -280,6 +291,7 @@ class UnitSearch {
     const values = axes[s].values
     const key = axes[s].spec.key
     if (a < b && this.boxMonotone[s] && this.boxScreenedOut(s, a, b)) return
+    if (this.slabbed[s] && b - a + 1 > this.cornersOf(1) && this.screening()) { yield* this.walkSlabs(s, a, b); return }
     const last = s + 1 === axes.length
     if (a < b && this.boxMonotone[s] && !last && (b - a + 1) * this.innerSize[s] > 2 * this.cornersOf(this.boxAxes[s].length)) {
       // halved while the halves are still worth bounding
@@ -299,6 +311,37 @@ class UnitSearch {
   }
 
   /**
+   * The walk of axis s (monotone, the next to last) over a..b where the last axis is not
+   * monotone, so no box spans both: each value of the last axis first bounds its slab (axis s
+   * over a..b, the last axis held at that value) from the slab's two ends, and a slab screened
+   * out is counted and passed over; the rest are walked in the grid's order. A slab screened
+   * out now stays out, as the seeds and lists only get harder to enter.
+   */
+  private *walkSlabs(s: number, a: number, b: number): Generator<void> {
+    const { axes, params, slabOut } = this
+    const values = axes[s].values, key = axes[s].spec.key
+    const inner = axes[s + 1].values, innerKey = axes[s + 1].spec.key
+    let lo = Infinity, hi = -Infinity
+    for (let i = a; i <= b; i++) { if (values[i] < lo) lo = values[i]; if (values[i] > hi) hi = values[i] }
+    this.slabLow[0] = lo
+    this.slabHigh[0] = hi
+    const names = this.slabNames
+    for (let j = 0; j < inner.length; j++) {
+      params[innerKey] = inner[j]
+      slabOut[j] = this.screenedOut(names, this.slabLow, this.slabHigh, b - a + 1) ? 1 : 0
+    }
+    for (let i = a; i <= b && !this.canLead; i++) {
+      params[key] = values[i]
+      for (let j = 0; j < inner.length && !this.canLead; j++) {
+        if (slabOut[j]) continue
+        params[innerKey] = inner[j]
+        this.point()
+        if (++this.sinceYield >= YIELD_EVERY) { this.sinceYield = 0; yield }
+      }
+    }
+  }
+
+  /**
    * Whether the box (see walk) is screened out whole: it is counted and passed over when its
    * bound from the corners puts no member among the seeds nor in a list. Bounding costs 2ⁿ
    * estimates for n spanning axes (2 where the extremes lie at the ends), so only boxes of more
@@ -308,13 +351,18 @@ class UnitSearch {
     const members = (b - a + 1) * this.innerSize[s]
     const names = this.boxNames[s]
     if (members <= this.cornersOf(names.length) || !this.screening()) return false
-    const { judge, seeds, params } = this
     const values = this.axes[s].values
     const lows = this.boxLows[s], highs = this.boxHighs[s]
     let lo = Infinity, hi = -Infinity
     for (let i = a; i <= b; i++) { if (values[i] < lo) lo = values[i]; if (values[i] > hi) hi = values[i] }
     lows[0] = lo
     highs[0] = hi
+    return this.screenedOut(names, lows, highs, members)
+  }
+
+  /** Whether the box of `members` candidates (the parameters `names` spanning lows..highs, the others as in params) is screened out: then counted. */
+  private screenedOut(names: readonly string[], lows: Float64Array, highs: Float64Array, members: number): boolean {
+    const { judge, seeds, params } = this
     const couldBeOk = judge.boundBox(params, names, lows, highs)
     if (couldBeOk === null || judge.objective > seeds[seeds.length - 1].score.objective) return false
     if (couldBeOk && this.boxCouldRank(names, lows, highs)) return false

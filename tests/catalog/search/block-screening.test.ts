@@ -98,7 +98,7 @@ describe('block screening', () => {
   for (const family of declared) {
     const estimator = estimatorFor(family)
     for (const key of estimator.monotoneIn!) {
-      it(`${family.id}: every metric is monotone in ${key}, and empty inside only where empty at an end`, () => {
+      it(`${family.id}: every metric is monotone in ${key}, booleans and emptiness included (empty inside only where empty at an end)`, () => {
         const spec = family.params.find((p) => p.key === key)!
         fc.assert(fc.property(validBase(family), fc.constantFrom(800, 2000, 3500), fc.constantFrom(0.01, 0.03), (base, E, limit) => {
           const values: number[][] = []
@@ -114,6 +114,8 @@ describe('block screening', () => {
             const column = values.map((v) => v[slot])
             const ends = [column[0], column[column.length - 1]]
             if (ends.every((v) => !Number.isNaN(v)) && column.some((v) => Number.isNaN(v))) throw new Error(`${estimator.layout!.keys[slot]} is empty inside but not at the ends`)
+            // empty on one side of a point and not on the other: then empty at both ends is empty throughout (a box bound keeps it)
+            if (direction(column.map((v) => (Number.isNaN(v) ? 1 : 0))) === null) throw new Error(`${estimator.layout!.keys[slot]} turns empty and back along ${key}: ${column.join(', ')}`)
             if (column.some((v) => Number.isNaN(v))) continue
             if (direction(column) === null) throw new Error(`${estimator.layout!.keys[slot]} is not monotone in ${key}: ${column.join(', ')}`)
           }

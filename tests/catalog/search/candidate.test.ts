@@ -161,3 +161,50 @@ describe('search with a family that has no dedicated estimator', () => {
     expect(observed.considered).toBe(expected.considered)
   })
 })
+
+describe('CandidateJudge.boundBox: booleans and emptiness at the corners', () => {
+  // A box is bounded from its corners on the strength of monotonicity (block-screening.test.ts
+  // samples each declaration): a boolean or an emptiness the same at every corner is then the
+  // same at every member, and corners that differ on one say nothing of the members between.
+  // Here the bistable beam's estimate made to lose, below a depth of 5 mm (monotone in depth,
+  // as the declaration requires), either its bistable flag or its second stable position alone.
+  const family = families.find((f) => f.id === 'bistable-beam')!
+  const real = estimatorFor(family)
+  const layoutKeys = real.layout!.keys
+  const window = parseWindow({ kind: 'bistable', peakForce: { min: 0.01, max: 1000 }, limit: 5 })
+  const compiled = compileWindow(window)
+  const base = { span: 40, apexHeight: 3, thickness: 0.6, depth: 5, postLength: 0 }
+  const cases = [
+    { what: 'the bistable flag', slot: layoutKeys.indexOf('bistable'), below: 0 },
+    { what: 'the second stable position (emptied)', slot: layoutKeys.indexOf('secondStablePosition'), below: NaN },
+  ]
+  for (const { what, slot, below } of cases) {
+    const switching: FastEstimator = {
+      ...real,
+      fill: (p, E, limit, out, bending) => {
+        if (!real.fill!(p, E, limit, out, bending)) return false
+        if (p.depth < 5) out[slot] = below
+        return true
+      },
+    }
+    const ctx: CandidateContext = {
+      family, estimator: switching, modulus: 2000, strainLimit: 0.06, bending: BENDING, tolerance: resolveTolerance(undefined), compiled, footprint: undefined,
+      walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
+    }
+    const judge = new CandidateJudge(ctx, [...compiled.metrics, 'bistable'])
+    const bound = (lo: number, hi: number) => judge.boundBox(base, ['depth'], Float64Array.of(lo), Float64Array.of(hi))
+
+    it(`${what}: keeps a box bistable at both ends (ok) and rules out one that fails at both ends`, () => {
+      expect(judge.judge({ ...base, depth: 6 })).toBe(true)
+      expect(judge.judge({ ...base, depth: 4 })).toBe(false)
+      expect(bound(5, 8)).toBe(true)
+      expect(bound(2, 4)).toBe(false)
+      expect(judge.reason).toBe('bistable')
+      expect(judge.objective).toBe(-Infinity)
+    })
+
+    it(`${what}: gives no bound for a box that switches between its ends`, () => {
+      expect(bound(3, 8)).toBeNull()
+    })
+  }
+})
