@@ -166,7 +166,9 @@ type Stage = (typeof Stage)[keyof typeof Stage]
  * Judges candidates of one context repeatedly. `judge(params)` leaves the verdict in the
  * public fields (ok, reason, margins, objective) and allocates nothing on the raw-number path;
  * `score(params)` returns the full CandidateScore (it judges again, so pass the same params
- * to get the score of the candidate just judged).
+ * to get the score of the candidate just judged). A tolerance corner or a box corner is
+ * estimated with its values set in `params` itself, which is as it was given when the call
+ * returns (so a params record must be writable; none is copied per corner).
  */
 export class CandidateJudge {
   ok = false
@@ -211,7 +213,10 @@ export class CandidateJudge {
   private readonly secondKey: number
   private readonly bistableKey: number
   private readonly safetyKey: number
-  private readonly shifted: Record<string, number> = {}
+  /** The walls' own values while a thickness corner is estimated in their place. */
+  private readonly savedWalls: Float64Array
+  /** A box's own values while its corners are estimated in their place. */
+  private savedBox = new Float64Array(8)
   private readonly thicknessSigns: readonly number[]
   private readonly modulusScales: readonly number[]
   /** Which strain rule applies (window/rule.ts), from the estimate's metric keys. */
@@ -243,6 +248,7 @@ export class CandidateJudge {
     this.emptyBest = Uint8Array.from(keys, (_key, k) => (
       this.slotOf[k] >= 0 && !this.booleanKey[k] && k !== this.secondKey && k !== this.bistableKey && k !== this.safetyKey &&
       bounds.every((b, i) => this.boundKey[i] !== k || (b.nullMeans === 'unbounded' && b.side === 'min')) ? 1 : 0))
+    this.savedWalls = new Float64Array(ctx.walls.length)
     this.emptySeen = new Uint8Array(n)
     this.valueSeen = new Uint8Array(n)
     const { thickness: dt, modulus: dE } = ctx.tolerance
@@ -296,11 +302,17 @@ export class CandidateJudge {
     for (const ts of this.thicknessSigns) {
       let values = nominal
       if (ts !== 0) {
-        const shifted = this.shifted
-        for (const key in params) shifted[key] = params[key]
+        // the walls shifted in params itself and put back (no copy of the record per corner)
+        const walls = ctx.walls, saved = this.savedWalls
         const dt = ctx.tolerance.thickness
-        for (const w of ctx.walls) shifted[w.key] = Math.min(w.max, Math.max(w.min, params[w.key] + ts * dt))
-        if (!this.estimate(shifted, this.corner)) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
+        for (let i = 0; i < walls.length; i++) {
+          const w = walls[i]
+          saved[i] = params[w.key]
+          params[w.key] = Math.min(w.max, Math.max(w.min, saved[i] + ts * dt))
+        }
+        const estimated = this.estimate(params, this.corner)
+        for (let i = 0; i < walls.length; i++) params[walls[i].key] = saved[i]
+        if (!estimated) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
         values = this.corner
       }
       // corners (ts, ±dE); at ts = 0 only the modulus corners, the nominal being folded already
@@ -360,30 +372,14 @@ export class CandidateJudge {
    */
   boundBox(params: Record<string, number>, keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean | null {
     if (!this.fill || this.ctx.footprint) return null
-    const corner = this.shifted
-    for (const key in params) corner[key] = params[key]
-    const { low, high, slotOf, booleanKey, emptyBest, emptySeen, valueSeen } = this
+    const { low, high, slotOf, booleanKey, emptySeen } = this
     const n = keys.length
-    emptySeen.fill(0)
-    valueSeen.fill(0)
-    // every corner, or where the extremes lie at the ends (FastEstimator.extremesAtEnds) the lowest and the highest
-    const last = (1 << n) - 1
-    const step = this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
-    for (let c = 0; c <= last; c += step) {
-      for (let i = 0; i < n; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
-      if (!this.estimate(corner, this.corner)) return null
-      for (let k = 0; k < slotOf.length; k++) {
-        if (slotOf[k] < 0) { low[k] = NaN; high[k] = NaN; continue }
-        const v = this.corner[slotOf[k]]
-        if (Number.isNaN(v) && emptyBest[k]) { emptySeen[k] = 1; continue }
-        if (!valueSeen[k]) { low[k] = v; high[k] = v; valueSeen[k] = 1; continue }
-        // monotone, a boolean or an emptiness the same at every corner is the same inside: an
-        // empty or false value is kept where all corners agree, and voids the bound where not
-        if (Number.isNaN(v) !== Number.isNaN(low[k]) || (booleanKey[k] && v !== low[k])) return null
-        if (v < low[k]) low[k] = v
-        if (v > high[k]) high[k] = v
-      }
-    }
+    // the corners are set in params itself and the box's own values put back at the end
+    const saved = this.savedBox.length >= n ? this.savedBox : (this.savedBox = new Float64Array(n))
+    for (let i = 0; i < n; i++) saved[i] = params[keys[i]]
+    const bounded = this.boxHull(params, keys, lows, highs)
+    for (let i = 0; i < n; i++) params[keys[i]] = saved[i]
+    if (!bounded) return null
     // optimistic: each bound scored at the hull's better end (sideMargin reads the low end of a
     // minimum and the high end of a maximum), so the ends are swapped and widened; a key empty
     // at some corner, where empty is best, is left empty (every minimum on it met without limit)
@@ -400,6 +396,33 @@ export class CandidateJudge {
     this.optimistic = false
     this.stage = Stage.Nominal
     return this.ok
+  }
+
+  /** boundBox's hull: each judged key's lowest and highest value over the corners into low and high (params left at the last corner); false where no bound is given. */
+  private boxHull(params: Record<string, number>, keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean {
+    const { low, high, slotOf, booleanKey, emptyBest, emptySeen, valueSeen } = this
+    const n = keys.length
+    emptySeen.fill(0)
+    valueSeen.fill(0)
+    // every corner, or where the extremes lie at the ends (FastEstimator.extremesAtEnds) the lowest and the highest
+    const last = (1 << n) - 1
+    const step = this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
+    for (let c = 0; c <= last; c += step) {
+      for (let i = 0; i < n; i++) params[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
+      if (!this.estimate(params, this.corner)) return false
+      for (let k = 0; k < slotOf.length; k++) {
+        if (slotOf[k] < 0) { low[k] = NaN; high[k] = NaN; continue }
+        const v = this.corner[slotOf[k]]
+        if (Number.isNaN(v) && emptyBest[k]) { emptySeen[k] = 1; continue }
+        if (!valueSeen[k]) { low[k] = v; high[k] = v; valueSeen[k] = 1; continue }
+        // monotone, a boolean or an emptiness the same at every corner is the same inside: an
+        // empty or false value is kept where all corners agree, and voids the bound where not
+        if (Number.isNaN(v) !== Number.isNaN(low[k]) || (booleanKey[k] && v !== low[k])) return false
+        if (v < low[k]) low[k] = v
+        if (v > high[k]) high[k] = v
+      }
+    }
+    return true
   }
 
   /** The full score of `params` (judged again), with the records the engine reports. */

@@ -248,6 +248,8 @@ class UnitSearch {
     this.boxLows = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.min(...axes[i].values)))
     this.boxHighs = this.boxAxes.map((list) => Float64Array.from(list, (i) => Math.max(...axes[i].values)))
     this.innerSize = axes.map((_, s) => gridSize(axes.slice(s + 1)))
+    // every key present from the start, in the grid's order (the judge sets a box's corners in params and puts its values back)
+    for (const axis of axes) this.params[axis.spec.key] = axis.values[0]
     const lastAxis = axes[axes.length - 1]
     this.slabbed = axes.map((axis, s) => s === axes.length - 2 && !this.boxMonotone[s] && monotone.includes(axis.spec.key) && axis.values.length > 1 && lastAxis.values.length > 1)
     this.slabOut = new Uint8Array(lastAxis?.values.length ?? 0)

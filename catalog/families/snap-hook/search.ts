@@ -5,29 +5,14 @@ import { taperIntegral } from './model'
 
 const DEG = Math.PI / 180
 
-/**
- * wedgeForce (model.ts) on raw numbers, NaN where the face locks; the tangent of the last few
- * angles is kept, as a search walks the same few face angles over and over.
- */
-const tanAngles = new Float64Array(4)
-const tanValues = new Float64Array(4)
-let tanNext = 0
-function tanOf(angle: number): number {
-  for (let i = 0; i < 4; i++) if (tanAngles[i] === angle && tanValues[i] === tanValues[i]) return tanValues[i]
-  const t = Math.tan(angle * DEG)
-  tanAngles[tanNext] = angle
-  tanValues[tanNext] = t
-  tanNext = (tanNext + 1) & 3
-  return t
-}
+/** wedgeForce (model.ts) on raw numbers, NaN where the face locks. */
 function wedge(P: number, friction: number, angle: number): number {
   if (angle >= 90) return NaN
-  const t = tanOf(angle)
+  const t = Math.tan(angle * DEG)
   const denominator = 1 - friction * t
   if (denominator <= 0) return NaN
   return (P * (friction + t)) / denominator
 }
-tanValues.fill(NaN)
 
 export const estimator = dedicatedEstimator('snap-fit-equations', 'snap-fit-equations', true,
   layoutOf([['deflectionForce', 1], ['matingForce', 1], ['separationForce', 1], ['rootStrain', 0], ['strainLimit', 0], ['safetyFactor', 0]]),
