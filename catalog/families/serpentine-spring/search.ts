@@ -21,10 +21,12 @@ export const estimator = dedicatedEstimator('castigliano', 'castigliano', true,
   (p, material, limit, out, bending) => {
     const E = bendingModulus(material, bending, p.depth, p.thickness) // the model's wide-beam rule
     moments(p.spans, p.spanLength, p.pitch)
-    // castiglianoStiffness and linearStrainAtForce (model.ts) written out on the moments taken once: the same expressions, so the same numbers
-    const k = ((E * p.depth * p.thickness ** 3) / 12) / lastSecondMoment
+    // castiglianoStiffness and linearStrainAtForce (model.ts) written out on the moments taken once (the same expressions, to the last bit but for the cube)
+    // the cube as a product, not ** 3: the power costs several times as much here and differs only in the last bit
+    const t3 = p.thickness * p.thickness * p.thickness
+    const k = ((E * p.depth * t3) / 12) / lastSecondMoment
     // strain per mm of travel: at the force k·1 mm, and k ∝ E, so E cancels
-    const EI = E * ((p.depth * p.thickness ** 3) / 12), EA = E * (p.depth * p.thickness)
+    const EI = E * ((p.depth * t3) / 12), EA = E * (p.depth * p.thickness)
     const perMm = k * ((lastLever * p.thickness) / (2 * EI) + 1 / EA)
     const maxTravel = Math.min(limit / perMm, travelCap(p))
     out[0] = k
