@@ -199,7 +199,9 @@ function* searchUnits(run: SearchRun): Generator<void> {
  * inside it; when the estimator is monotone in all of them (FastEstimator.monotoneIn) and
  * screening applies, the box is bounded from its corners (CandidateJudge.boundBox) and, when
  * no member could become a seed nor rank, counted without judging any; otherwise it is halved
- * along its outer axis, down to single candidates, which are bounded one by one.
+ * along its outer axis, down to single candidates, which are bounded one by one. Where the
+ * next-to-last axis is monotone but the last is not, the walk there goes by slabs (walkSlabs):
+ * the next-to-last axis's range at each value of the last, bounded from its two ends.
  */
 class UnitSearch {
   private readonly ctx: CandidateContext
@@ -230,6 +232,7 @@ class UnitSearch {
   private readonly slabOut: Uint8Array
   private readonly slabLow = new Float64Array(1)
   private readonly slabHigh = new Float64Array(1)
+  /** The one parameter a slab spans (the next-to-last axis's). */
   private slabNames: string[] = []
   private readonly params: Record<string, number> = {}
   private readonly cornerParams: Record<string, number> = {}
