@@ -49,10 +49,10 @@ function fieldSchema(spec: FamilyDefinition['params'][number], range?: [number, 
   return s.optional()
 }
 
-/** The zod schema of a family's parameters (plus material overrides); unknown keys are refused. */
 /** Each family's schema without entry ranges, built once: building one costs more than parsing with it (every evaluation and file validates). */
 const plainSchemas = new WeakMap<FamilyDefinition, ReturnType<typeof buildParamsSchema>>()
 
+/** The zod schema of a family's parameters (plus material overrides); unknown keys are refused. */
 export function paramsSchema(family: FamilyDefinition, ranges?: ParamRanges) {
   if (ranges) return buildParamsSchema(family, ranges)
   let schema = plainSchemas.get(family)

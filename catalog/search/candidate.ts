@@ -158,6 +158,16 @@ function footprintReason(footprint: ForceWindow['footprint'], env: { x: number; 
   return Math.max(env.x, env.y) > footprint.length ? 'footprint.length' : 'footprint.width'
 }
 
+/**
+ * The corners a box of n monotone parameters is bounded from, as bit masks c = 0, step, … last
+ * (bit i: parameter i at its high end): every corner, or where the estimator's extremes lie at
+ * the ends (FastEstimator.extremesAtEnds) the lowest and the highest alone.
+ */
+export function boxCorners(estimator: Pick<FastEstimator, 'extremesAtEnds'>, n: number): { last: number; step: number } {
+  const last = (1 << n) - 1
+  return { last, step: estimator.extremesAtEnds ? Math.max(1, last) : 1 }
+}
+
 /** Where judging stopped: the rules, the footprint, the estimate, the nominal verdict, the band. */
 const Stage = { Rules: 0, Footprint: 1, Model: 2, Nominal: 3, Band: 4 } as const
 type Stage = (typeof Stage)[keyof typeof Stage]
@@ -361,8 +371,7 @@ export class CandidateJudge {
    * bound() for a whole box of candidates at once, from its corners: `params` holds the box's
    * fixed parameters, and each of `keys` (parameters the estimator is monotone in, see
    * FastEstimator.monotoneIn) spans [lows[i], highs[i]]. Every metric of every member then lies
-   * between its values at the corners (at the lowest and highest corner alone where the
-   * estimator's extremes lie at the ends) (widened by BOX_SLACK for rounding), so scoring each bound
+   * between its values at the corners of boxCorners (widened by BOX_SLACK for rounding), so scoring each bound
    * of the window at the hull's better end bounds every member's bound() from above: `ok` false
    * only when every member certainly fails, objective, margin and safety no lower than any
    * member's. A boolean or an emptiness the same at every corner is the same at every member
@@ -404,9 +413,7 @@ export class CandidateJudge {
     const n = keys.length
     emptySeen.fill(0)
     valueSeen.fill(0)
-    // every corner, or where the extremes lie at the ends (FastEstimator.extremesAtEnds) the lowest and the highest
-    const last = (1 << n) - 1
-    const step = this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
+    const { last, step } = boxCorners(this.ctx.estimator, n)
     for (let c = 0; c <= last; c += step) {
       for (let i = 0; i < n; i++) params[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       if (!this.estimate(params, this.corner)) return false

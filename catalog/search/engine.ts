@@ -14,7 +14,7 @@ import { printerRules, type PrinterRules } from '../printability'
 import type { FamilyDefinition } from '../schema/types'
 import { resolveTolerance } from '../tolerance'
 import { compileWindow, DEFAULT_LIMIT, familyKindsForWindow, parseWindow, type CompiledWindow, type ForceWindow, type MetricBand } from '../window'
-import { CandidateJudge, type CandidateContext, type CandidateScore } from './candidate'
+import { boxCorners, CandidateJudge, type CandidateContext, type CandidateScore } from './candidate'
 import { exactCheck, uncertaintyOf } from './exact-check'
 import { estimatorFor } from './estimators'
 import { explainEmpty, type Tally } from './explain'
@@ -233,7 +233,7 @@ class UnitSearch {
   private readonly slabLow = new Float64Array(1)
   private readonly slabHigh = new Float64Array(1)
   /** The one parameter a slab spans (the next-to-last axis's). */
-  private slabNames: string[] = []
+  private readonly slabNames: string[]
   private readonly params: Record<string, number> = {}
   private readonly cornerParams: Record<string, number> = {}
   private sinceYield = 0
@@ -256,7 +256,7 @@ class UnitSearch {
     const lastAxis = axes[axes.length - 1]
     this.slabbed = axes.map((axis, s) => s === axes.length - 2 && !this.boxMonotone[s] && monotone.includes(axis.spec.key) && axis.values.length > 1 && lastAxis.values.length > 1)
     this.slabOut = new Uint8Array(lastAxis?.values.length ?? 0)
-    if (axes.length >= 2) this.slabNames = [axes[axes.length - 2].spec.key]
+    this.slabNames = axes.length >= 2 ? [axes[axes.length - 2].spec.key] : []
   }
 
   /** The grid walk (see the class), yielding every YIELD_EVERY candidates. */
@@ -383,10 +383,20 @@ class UnitSearch {
    * empty answer): it is counted, not banded.
    */
   private point(): void {
-    const { judge, params, seeds } = this
+    this.judgeStep(this.params, Infinity)
+  }
+
+  /**
+   * A candidate judged and considered, or (screening) counted without its band when its bound
+   * could make it no seed, enter no list (probing: no lead) and, for a refinement trial, not
+   * beat `floor`, the climb's best so far (see refine; +∞ for a grid point).
+   */
+  private readonly judgeStep = (params: Record<string, number>, floor: number): void => {
+    const { judge, seeds } = this
     if (this.screening()) {
       const couldBeOk = judge.bound(params)
-      if (judge.objective <= seeds[seeds.length - 1].score.objective && (!couldBeOk || !(this.probing ? this.couldLead(params) : this.couldRank(params)))) {
+      if (judge.objective <= floor && judge.objective <= seeds[seeds.length - 1].score.objective &&
+        (!couldBeOk || !(this.probing ? this.couldLead(params) : this.couldRank(params)))) {
         this.run.tally.considered++
         return
       }
@@ -395,14 +405,10 @@ class UnitSearch {
     this.consider(params)
   }
 
-  /** Estimates a bound of a box spanning n axes costs: its 2ⁿ corners, or 2 where the estimator's extremes lie at the ends. */
+  /** Estimates a bound of a box spanning n axes costs (CandidateJudge.boxCorners). */
   private cornersOf(n: number): number {
-    return this.ctx.estimator.extremesAtEnds && n > 1 ? 2 : 1 << n
-  }
-
-  /** The step from one bounding corner to the next (corner c's bit i: axis i at its high end). */
-  private cornerStep(last: number): number {
-    return this.ctx.estimator.extremesAtEnds ? Math.max(1, last) : 1
+    const { last, step } = boxCorners(this.ctx.estimator, n)
+    return Math.floor(last / step) + 1
   }
 
   /** Whether candidates may be screened by bounds: the seeds are full, and (probing) the leads or this unit's list or the answer so far is. */
@@ -434,8 +440,8 @@ class UnitSearch {
     const corner = this.cornerParams
     for (const key in params) corner[key] = params[key]
     let area = Infinity, volume = Infinity
-    const last = (1 << keys.length) - 1
-    for (let c = 0; c <= last; c += this.cornerStep(last)) {
+    const { last, step } = boxCorners(this.ctx.estimator, keys.length)
+    for (let c = 0; c <= last; c += step) {
       for (let i = 0; i < keys.length; i++) corner[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
       const env = this.unit.family.envelope(corner)
       if (env.x * env.y < area) area = env.x * env.y
@@ -453,33 +459,13 @@ class UnitSearch {
     for (const seed of this.seeds) {
       if (this.canLead) break
       if (seed.score.objective === -Infinity) continue
-      const found = refine(this.judge, continuous, seed.params, seed.score, this.refineStep)
+      const found = refine(this.judge, continuous, seed.params, seed.score, this.judgeStep)
       if (found.ok) {
         this.judge.judge(found.params)
         this.keep.reset()
         this.offer(found.params)
       }
     }
-  }
-
-  /**
-   * One trial of a refinement, judged and considered as point() judges a grid point, except
-   * that a trial whose bound cannot beat `floor` (the refinement's best so far, see refine)
-   * cannot move the climb either: it is counted, not banded, when it also could become no
-   * seed and enter no list.
-   */
-  private readonly refineStep = (params: Record<string, number>, floor: number): void => {
-    const { judge, seeds } = this
-    if (this.screening()) {
-      const couldBeOk = judge.bound(params)
-      if (judge.objective <= floor && judge.objective <= seeds[seeds.length - 1].score.objective &&
-        (!couldBeOk || !(this.probing ? this.couldLead(params) : this.couldRank(params)))) {
-        this.run.tally.considered++
-        return
-      }
-      judge.judgeBounded(params)
-    } else judge.judge(params)
-    this.consider(params)
   }
 
   /** Tallies the candidate the judge has just judged, and keeps it where it counts. */

@@ -189,9 +189,6 @@ function interpolateUncached(q: number, eta: number, w: number, out: Float64Arra
 
 const slot = Object.fromEntries(TABLE_METRICS.map((k, i) => [k, i])) as Record<(typeof TABLE_METRICS)[number], number>
 const scratch = new Float64Array(METRICS)
-/** The inputs of the answer in scratch (fillFromTable), and whether there was one. */
-let lastQ = NaN, lastEta = NaN, lastW = NaN, lastOk = false
-let lastTable: BistableTable | null = null
 
 /**
  * estimateFromTable on raw numbers, for search: writes into `out` in the slot order
@@ -203,12 +200,7 @@ let lastTable: BistableTable | null = null
 export function fillFromTable(table: BistableTable, span: number, h: number, thickness: number, depth: number, postLength: number, modulus: number, strainLimit: number, out: Float64Array): boolean {
   const slenderness = span / thickness
   const q = h / thickness, eta = h / span, w = (postLength / span) * Math.cbrt(slenderness * slenderness)
-  // the same point as the last call (every depth of a beam, its modulus corners): scratch holds its answer already
-  if (q !== lastQ || eta !== lastEta || w !== lastW || table !== lastTable) {
-    lastOk = interpolateTable(q, eta, w, scratch, table)
-    lastQ = q; lastEta = eta; lastW = w; lastTable = table
-  }
-  if (!lastOk) return false
+  if (!interpolateTable(q, eta, w, scratch, table)) return false
   // cubes as products, not ** 3: the power costs several times as much here and differs only in the last bit
   const scale = (2 * modulus * ((depth * (thickness * thickness * thickness)) / 12) * h) / (span * span * span)
   const valley = scratch[slot.valley] * scale

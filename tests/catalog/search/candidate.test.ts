@@ -208,3 +208,35 @@ describe('CandidateJudge.boundBox: booleans and emptiness at the corners', () =>
     })
   }
 })
+
+describe('CandidateJudge.boundBox: which corners', () => {
+  // The snap hook's mating force P(μ + tan α)/(1 − μ tan α), P = E·I·y/(J·l³) (the snap-fit
+  // equations its model implements), rises with the undercut y and falls with the arm length l:
+  // over a box of the two its smallest value lies at (low y, high l), a corner that is neither
+  // the lowest nor the highest. Without extremesAtEnds every corner must be looked at.
+  const family = families.find((f) => f.id === 'snap-hook')!
+  const real = estimatorFor(family)
+  const window = parseWindow({ kind: 'latch', matingForce: { max: 1 }, limit: 5 })
+  const compiled = compileWindow(window)
+  const ctx: CandidateContext = {
+    family, estimator: { ...real, extremesAtEnds: false }, modulus: 2000, strainLimit: 0.06, bending: BENDING, tolerance: resolveTolerance(undefined), compiled, footprint: undefined,
+    walls: family.params.filter((p) => p.role === 'wall').map((p) => ({ key: p.key, min: p.min, max: p.max })),
+  }
+  const judge = new CandidateJudge(ctx, [...compiled.metrics, 'bistable'])
+  const base = Object.fromEntries(family.params.map((p) => [p.key, p.default]))
+
+  it('keeps a box whose only member under the window lies at a corner between the ends', () => {
+    // the member at (undercut 0.6, length 24) mates under 1 N; the ends (0.6, 12) and (2, 24) do not
+    expect(judge.judge({ ...base, undercut: 0.6, length: 24 })).toBe(true)
+    expect(judge.judge({ ...base, undercut: 0.6, length: 12 })).toBe(false)
+    expect(judge.judge({ ...base, undercut: 2, length: 24 })).toBe(false)
+    expect(judge.boundBox({ ...base }, ['undercut', 'length'], Float64Array.of(0.6, 12), Float64Array.of(2, 24))).toBe(true)
+  })
+
+  it('leaves the params record as it was given', () => {
+    const params = { ...base }
+    judge.boundBox(params, ['undercut', 'length'], Float64Array.of(0.6, 12), Float64Array.of(2, 24))
+    judge.judge(params)
+    expect(params).toEqual(base)
+  })
+})
