@@ -411,8 +411,8 @@ export class CandidateJudge {
   private boxHull(params: Record<string, number>, keys: readonly string[], lows: Float64Array, highs: Float64Array): boolean {
     const { low, high, slotOf, booleanKey, emptyBest, emptySeen, valueSeen } = this
     const n = keys.length
-    emptySeen.fill(0)
-    valueSeen.fill(0)
+    // loops, not fill(): the builtin's call costs more than these few slots
+    for (let k = 0; k < emptySeen.length; k++) { emptySeen[k] = 0; valueSeen[k] = 0 }
     const { last, step } = boxCorners(this.ctx.estimator, n)
     for (let c = 0; c <= last; c += step) {
       for (let i = 0; i < n; i++) params[keys[i]] = c & (1 << i) ? highs[i] : lows[i]
@@ -450,22 +450,22 @@ export class CandidateJudge {
   scoreJudged(): CandidateScore {
     if (!this.fill) return this.recordScore!
     const stage = this.stage < Stage.Nominal ? Stage.Rules : this.stage === Stage.Nominal ? Stage.Nominal : Stage.Band
-    let raw: Float64Array | null = null
+    let raw: number[] | null = null
     if (stage !== Stage.Rules) {
-      const L = this.nominal.length
-      const n = this.keys.length
-      raw = new Float64Array(L + (stage === Stage.Band ? 2 * n : 0))
-      raw.set(this.nominal)
+      // a plain array: a small typed array costs several times as much to allocate, and many are kept
+      const { nominal, low, high } = this
+      raw = []
+      for (let i = 0; i < nominal.length; i++) raw.push(nominal[i])
       if (stage === Stage.Band) {
-        raw.set(this.low, L)
-        raw.set(this.high, L + n)
+        for (let k = 0; k < low.length; k++) raw.push(low[k])
+        for (let k = 0; k < high.length; k++) raw.push(high[k])
       }
     }
     return new KeptScore(this, stage, raw)
   }
 
   /** KeptScore's records from its raw numbers: what scoreJudged built at once before. */
-  recordsOf(stage: Stage, raw: Float64Array | null): { nominal: Estimate | null; low: Record<string, MetricValue> | null; high: Record<string, MetricValue> | null } {
+  recordsOf(stage: Stage, raw: readonly number[] | null): { nominal: Estimate | null; low: Record<string, MetricValue> | null; high: Record<string, MetricValue> | null } {
     if (stage === Stage.Rules || !raw) return { nominal: null, low: null, high: null }
     const layout = this.layout!
     const nominal: Record<string, MetricValue> = {}
@@ -629,7 +629,7 @@ class KeptScore implements CandidateScore {
   readonly banded: boolean
   private records: ReturnType<CandidateJudge['recordsOf']> | null = null
 
-  constructor(private readonly judge: CandidateJudge, private readonly stage: Stage, private readonly raw: Float64Array | null) {
+  constructor(private readonly judge: CandidateJudge, private readonly stage: Stage, private readonly raw: readonly number[] | null) {
     this.ok = judge.ok
     this.reason = judge.reason
     this.windowMargin = judge.windowMargin

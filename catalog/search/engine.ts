@@ -49,6 +49,9 @@ const now = () => (globalThis.performance?.now ? globalThis.performance.now() : 
 
 type Phase = 'sampling' | 'refining' | 'confirming' | 'done'
 
+/** Where the grid walk is in a box (UnitSearch.walk): not yet looked at, its first half walked, walking its values. */
+const BoxStep = { Enter: 0, SecondHalf: 1, Values: 2 } as const
+
 /** What every step of one search reads and adds to: the window, its limits, the units, the tally and the kept candidates. */
 interface SearchRun {
   readonly started: number
@@ -263,7 +266,7 @@ class UnitSearch {
   *sample(): Generator<void> {
     const { axes } = this
     this.sinceYield = 0
-    if (axes.length && axes.every((a) => a.values.length)) yield* this.walk(0, 0, axes[0].values.length - 1)
+    if (axes.length && axes.every((a) => a.values.length)) yield* this.walk()
   }
 
   /** Whether this unit is probed before its search: distinct answers whose leads are full, a raw-number estimator, no footprint. */
@@ -290,28 +293,64 @@ class UnitSearch {
     return this.canLead
   }
 
-  /** The box whose axes before s hold their values in params, axis s spans its values a..b, and the inner axes all theirs. */
-  private *walk(s: number, a: number, b: number): Generator<void> {
+  /**
+   * The walk over the whole grid: boxes taken depth first from an explicit stack rather than by
+   * a generator per box (one per value of every outer axis, which cost about a tenth of a
+   * spring's search). A box is axis s over its values a..b, the axes before s holding their
+   * values in params and the inner axes spanning all theirs; it is screened out, walked by
+   * slabs, halved, or walked value by value, the last axis's values in a row.
+   */
+  private *walk(): Generator<void> {
     const { axes, params } = this
-    const values = axes[s].values
-    const key = axes[s].spec.key
-    if (a < b && this.boxMonotone[s] && this.boxScreenedOut(s, a, b)) return
-    if (this.slabbed[s] && b - a + 1 > this.cornersOf(1) && this.screening()) { yield* this.walkSlabs(s, a, b); return }
-    const last = s + 1 === axes.length
-    if (a < b && this.boxMonotone[s] && !last && (b - a + 1) * this.innerSize[s] > 2 * this.cornersOf(this.boxAxes[s].length)) {
-      // halved while the halves are still worth bounding
-      const mid = (a + b) >> 1
-      yield* this.walk(s, a, mid)
-      if (!this.canLead) yield* this.walk(s, mid + 1, b)
-      return
+    const depth = axes.length
+    // five numbers a box: its axis, its range a..b, then the next value to walk (or, halved, its middle) and the step it is at
+    // (a top index rather than setting the array's length, which V8 does in a runtime call)
+    const stack: number[] = [0, 0, axes[0].values.length - 1, 0, BoxStep.Enter]
+    let top = 5
+    const push = (s: number, a: number, b: number) => {
+      stack[top] = s; stack[top + 1] = a; stack[top + 2] = b; stack[top + 3] = 0; stack[top + 4] = BoxStep.Enter
+      top += 5
     }
-    for (let i = a; i <= b && !this.canLead; i++) {
-      params[key] = values[i]
-      if (!last) yield* this.walk(s + 1, 0, axes[s + 1].values.length - 1)
-      else {
+    while (top) {
+      const f = top - 5
+      const s = stack[f], a = stack[f + 1], b = stack[f + 2], step = stack[f + 4]
+      if (step === BoxStep.Enter) {
+        if (a < b && this.boxMonotone[s] && this.boxScreenedOut(s, a, b)) { top = f; continue }
+        if (this.slabbed[s] && b - a + 1 > this.cornersOf(1) && this.screening()) { top = f; yield* this.walkSlabs(s, a, b); continue }
+        if (a < b && this.boxMonotone[s] && s + 1 < depth && (b - a + 1) * this.innerSize[s] > 2 * this.cornersOf(this.boxAxes[s].length)) {
+          // halved while the halves are still worth bounding
+          const mid = (a + b) >> 1
+          stack[f + 3] = mid
+          stack[f + 4] = BoxStep.SecondHalf
+          push(s, a, mid)
+          continue
+        }
+        stack[f + 3] = a
+        stack[f + 4] = BoxStep.Values
+        continue
+      }
+      if (step === BoxStep.SecondHalf) {
+        const mid = stack[f + 3]
+        top = f
+        if (!this.canLead) push(s, mid + 1, b)
+        continue
+      }
+      const values = axes[s].values
+      const key = axes[s].spec.key
+      let i = stack[f + 3]
+      if (s + 1 < depth) {
+        if (i > b || this.canLead) { top = f; continue }
+        params[key] = values[i]
+        stack[f + 3] = i + 1
+        push(s + 1, 0, axes[s + 1].values.length - 1)
+        continue
+      }
+      for (; i <= b && !this.canLead; i++) {
+        params[key] = values[i]
         this.point()
         if (++this.sinceYield >= YIELD_EVERY) { this.sinceYield = 0; yield }
       }
+      top = f
     }
   }
 

@@ -104,22 +104,28 @@ const acc = new Float64Array(METRICS)
  * returns false outside the table or where a surrounding node was not computed or failed.
  */
 export function interpolateTable(q: number, eta: number, w: number, out: Float64Array, table: BistableTable = bistableTable()): boolean {
-  // Search asks for the same point many times over (every print height of a beam, and the
-  // band's corners): the last answers are kept by their exact inputs, so a repeat is a copy.
+  const o = interpolated(q, eta, w, table)
+  if (o < 0) return false
+  for (let m = 0; m < METRICS; m++) out[m] = memoValues[o + m]
+  return true
+}
+
+/**
+ * interpolateTable's answer left in the memo: the offset of its metrics in memoValues (valid
+ * until the next call), or −1 outside the table. Search asks for the same point many times over
+ * (every print height of a beam, and the band's corners): the last answers are kept by their
+ * exact inputs, so a repeat is a lookup, and the caller reads the slots it needs in place.
+ */
+function interpolated(q: number, eta: number, w: number, table: BistableTable): number {
   if (memoTable !== table) { memoTable = table; memoState.fill(0) }
   const h = memoSlot(q, eta, w)
   const k = 3 * h
-  if (memoState[h] !== 0 && memoKeys[k] === q && memoKeys[k + 1] === eta && memoKeys[k + 2] === w) {
-    if (memoState[h] === 2) return false
-    const o = METRICS * h
-    for (let m = 0; m < METRICS; m++) out[m] = memoValues[o + m]
-    return true
-  }
-  const ok = interpolateUncached(q, eta, w, out, table)
+  const o = METRICS * h
+  if (memoState[h] !== 0 && memoKeys[k] === q && memoKeys[k + 1] === eta && memoKeys[k + 2] === w) return memoState[h] === 2 ? -1 : o
+  const ok = interpolateUncached(q, eta, w, memoValues, o, table)
   memoKeys[k] = q; memoKeys[k + 1] = eta; memoKeys[k + 2] = w
   memoState[h] = ok ? 1 : 2
-  if (ok) memoValues.set(out.subarray(0, METRICS), METRICS * h)
-  return ok
+  return ok ? o : -1
 }
 
 /** Answers kept by interpolateTable (a power of two): direct-mapped by a hash of the inputs' bits. */
@@ -139,7 +145,8 @@ function memoSlot(q: number, eta: number, w: number): number {
   return (x ^ (x >>> 15)) & (MEMO_SLOTS - 1)
 }
 
-function interpolateUncached(q: number, eta: number, w: number, out: Float64Array, table: BistableTable): boolean {
+/** The interpolation itself, into out[o … o + METRICS − 1] (which may be left partly written when it returns false). */
+function interpolateUncached(q: number, eta: number, w: number, out: Float64Array, o: number, table: BistableTable): boolean {
   const t = table
   const look = lookupOf(t)
   if (!(eta > 0) || !locate(t.q, q, 0, look.qStep) || !locate(t.logEta, Math.log(eta), 1, look.etaStep) || !locate(t.w, w, 2, look.wStep)) return false
@@ -168,7 +175,7 @@ function interpolateUncached(q: number, eta: number, w: number, out: Float64Arra
   let finite = true
   for (let m = 0; m < METRICS; m++) if (!Number.isFinite(acc[m])) { finite = false; break }
   if (finite) {
-    for (let m = 0; m < METRICS; m++) out[m] = acc[m]
+    for (let m = 0; m < METRICS; m++) out[o + m] = acc[m]
     return true
   }
   // a cubic's outer node is missing (the edge of the valid groups): trilinear on the cell
@@ -182,13 +189,15 @@ function interpolateUncached(q: number, eta: number, w: number, out: Float64Arra
   }
   for (let m = 0; m < METRICS; m++) {
     if (!Number.isFinite(acc[m])) return false
-    out[m] = acc[m]
+    out[o + m] = acc[m]
   }
   return true
 }
 
-const slot = Object.fromEntries(TABLE_METRICS.map((k, i) => [k, i])) as Record<(typeof TABLE_METRICS)[number], number>
-const scratch = new Float64Array(METRICS)
+/** Slots of the table's metrics, as constants (a lookup by name per call costs more than the arithmetic around it). */
+const slotOf = (k: (typeof TABLE_METRICS)[number]) => TABLE_METRICS.indexOf(k)
+const SLOT_PEAK = slotOf('peak'), SLOT_VALLEY = slotOf('valley'), SLOT_UNSTABLE_AT = slotOf('unstableAt'), SLOT_SECOND_AT = slotOf('secondAt')
+const SLOT_WORK_IN = slotOf('workIn'), SLOT_BARRIER = slotOf('barrier'), SLOT_STRAIN = slotOf('strain')
 
 /**
  * estimateFromTable on raw numbers, for search: writes into `out` in the slot order
@@ -199,25 +208,39 @@ const scratch = new Float64Array(METRICS)
  */
 export function fillFromTable(table: BistableTable, span: number, h: number, thickness: number, depth: number, postLength: number, modulus: number, strainLimit: number, out: Float64Array): boolean {
   const slenderness = span / thickness
-  const q = h / thickness, eta = h / span, w = (postLength / span) * Math.cbrt(slenderness * slenderness)
-  if (!interpolateTable(q, eta, w, scratch, table)) return false
+  // no post: w is 0 whatever the slenderness (the cube root, the costliest step here, skipped); else
+  // the root of the last slenderness is reused, as search walks the post length innermost
+  const w = postLength === 0 ? 0 : (postLength / span) * cbrtOfSquare(slenderness)
+  const o = interpolated(h / thickness, h / span, w, table)
+  if (o < 0) return false
+  const v = memoValues
   // cubes as products, not ** 3: the power costs several times as much here and differs only in the last bit
   const scale = (2 * modulus * ((depth * (thickness * thickness * thickness)) / 12) * h) / (span * span * span)
-  const valley = scratch[slot.valley] * scale
+  const valley = v[o + SLOT_VALLEY] * scale
   const bistable = valley < 0
-  const reachesSecond = bistable && scratch[slot.secondAt] < 2 - 1e-9
-  const maxStrain = scratch[slot.strain] * ((thickness * h) / span ** 2)
-  out[0] = scratch[slot.peak] * scale
+  const secondAt = v[o + SLOT_SECOND_AT]
+  const reachesSecond = bistable && secondAt < 2 - 1e-9
+  const maxStrain = v[o + SLOT_STRAIN] * ((thickness * h) / (span * span))
+  out[0] = v[o + SLOT_PEAK] * scale
   out[1] = valley
-  out[2] = bistable ? scratch[slot.unstableAt] * h : NaN
-  out[3] = reachesSecond ? scratch[slot.secondAt] * h : NaN
-  out[4] = bistable ? scratch[slot.workIn] * scale * h : NaN
-  out[5] = reachesSecond ? scratch[slot.barrier] * scale * h : NaN
+  out[2] = bistable ? v[o + SLOT_UNSTABLE_AT] * h : NaN
+  out[3] = reachesSecond ? secondAt * h : NaN
+  out[4] = bistable ? v[o + SLOT_WORK_IN] * scale * h : NaN
+  out[5] = reachesSecond ? v[o + SLOT_BARRIER] * scale * h : NaN
   out[6] = bistable ? 1 : 0
   out[7] = maxStrain
   out[8] = strainLimit
   out[9] = strainLimit / maxStrain
   return true
+}
+
+let lastSlenderness = NaN
+let lastRoot = NaN
+
+/** ∛(s²), the last answer kept. */
+function cbrtOfSquare(s: number): number {
+  if (s !== lastSlenderness) { lastSlenderness = s; lastRoot = Math.cbrt(s * s) }
+  return lastRoot
 }
 
 const slots = new Float64Array(10)
