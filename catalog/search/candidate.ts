@@ -220,6 +220,15 @@ export class CandidateJudge {
   private readonly high: Float64Array
   /** Per bound of the window: index into the judged keys. */
   private readonly boundKey: Int32Array
+  /** Per bound: the compiled bound's fields in arrays (read once per bound per verdict, millions of times a search). */
+  private readonly boundSide: Array<'min' | 'max'>
+  private readonly boundSign: Float64Array
+  private readonly boundValue: Float64Array
+  private readonly boundScale: Float64Array
+  /** Per bound: an empty value means unbounded (not missing). */
+  private readonly boundUnbounded: Uint8Array
+  /** Per bound: an optimistic bound meets it at best (an unbounded minimum on a key whose emptiness changes with the walls). */
+  private readonly boundBestWhenOptimistic: Uint8Array
   private readonly secondKey: number
   private readonly bistableKey: number
   private readonly safetyKey: number
@@ -258,6 +267,12 @@ export class CandidateJudge {
     this.emptyBest = Uint8Array.from(keys, (_key, k) => (
       this.slotOf[k] >= 0 && !this.booleanKey[k] && k !== this.secondKey && k !== this.bistableKey && k !== this.safetyKey &&
       bounds.every((b, i) => this.boundKey[i] !== k || (b.nullMeans === 'unbounded' && b.side === 'min')) ? 1 : 0))
+    this.boundSide = bounds.map((b) => b.side)
+    this.boundSign = Float64Array.from(bounds, (b) => b.sign)
+    this.boundValue = Float64Array.from(bounds, (b) => b.bound)
+    this.boundScale = Float64Array.from(bounds, (b) => b.scale)
+    this.boundUnbounded = Uint8Array.from(bounds, (b) => (b.nullMeans === 'unbounded' ? 1 : 0))
+    this.boundBestWhenOptimistic = Uint8Array.from(bounds, (b, i) => (b.nullMeans === 'unbounded' && b.side === 'min' && !this.emptyFixed[this.boundKey[i]] ? 1 : 0))
     this.savedWalls = new Float64Array(ctx.walls.length)
     this.emptySeen = new Uint8Array(n)
     this.valueSeen = new Uint8Array(n)
@@ -523,7 +538,7 @@ export class CandidateJudge {
       margin = -Infinity
       binding = -2
     } else {
-      for (let i = 0; i < c.bounds.length; i++) {
+      for (let i = 0; i < this.boundKey.length; i++) {
         const m = this.boundMargin(i)
         if (m < margin || binding === -1) { margin = m; binding = i }
       }
@@ -548,20 +563,19 @@ export class CandidateJudge {
 
   /** boundMargin() on the raw band: an empty value is null, a key the estimator lacks is undefined. */
   private boundMargin(i: number): number {
-    const b = this.ctx.compiled.bounds[i]
     const k = this.boundKey[i]
-    const lowV = this.low[k]
-    const highV = this.high[k]
     if (this.slotOf[k] < 0) return -Infinity
     // a band may turn empty where its nominal is not: an unbounded minimum is then met at best
-    if (this.optimistic && b.nullMeans === 'unbounded' && b.side === 'min' && !this.emptyFixed[k]) return MARGIN_LIMIT
+    if (this.optimistic && this.boundBestWhenOptimistic[i]) return MARGIN_LIMIT
+    const lowV = this.low[k]
+    const highV = this.high[k]
+    const side = this.boundSide[i]
     if (Number.isNaN(lowV) || Number.isNaN(highV)) {
-      if (b.nullMeans === 'unbounded' && Number.isNaN(lowV) && Number.isNaN(highV)) return b.side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT
+      if (this.boundUnbounded[i] && Number.isNaN(lowV) && Number.isNaN(highV)) return side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT
       return -Infinity
     }
-    const lo = b.sign === 1 ? lowV : -highV
-    const hi = b.sign === 1 ? highV : -lowV
-    return sideMargin(b.side, lo, hi, b.bound, b.scale)
+    const up = this.boundSign[i] === 1
+    return sideMargin(side, up ? lowV : -highV, up ? highV : -lowV, this.boundValue[i], this.boundScale[i])
   }
 
   /**
