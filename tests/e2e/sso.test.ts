@@ -113,6 +113,8 @@ describe('single sign-on in the browser', () => {
     // forget the identity provider's session, so it asks who is signing in
     await context.clearCookies({ domain: '127.0.0.1' })
     await page.getByRole('link', { name: 'Sign in with Lumenwick SSO' }).click()
+    // the sign-in page has an E-mail field too: fill only once the provider's page is there
+    await page.waitForURL(/127\.0\.0\.1:\d+\/interaction\//)
     await page.getByLabel('E-mail').fill('unverified@idp.flexshelf.test')
     await page.getByLabel('Password').fill('idp-dev-password')
     await page.getByRole('button', { name: 'Continue' }).click()
@@ -146,6 +148,9 @@ describe('single sign-on in the browser', () => {
     await page.getByRole('button', { name: 'Sign out' }).click()
     await page.waitForURL(/\/signin/)
     await page.getByRole('link', { name: 'Forgot your password?' }).click()
+    // the reset view is loaded on demand and the sign-in view (with its own E-mail field)
+    // stays until it is; filling before would type into the sign-in form
+    await page.getByRole('heading', { name: 'Reset your password' }).waitFor()
     await page.getByLabel('E-mail').fill('engineer@demo.flexshelf.test')
     await page.getByRole('button', { name: 'Send the link' }).click()
     await page.getByText('an e-mail with a link is on its way').waitFor()
