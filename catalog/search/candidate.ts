@@ -184,7 +184,12 @@ export class CandidateJudge {
   ok = false
   reason: string | null = null
   windowMargin = -Infinity
-  strainMargin: number | null = null
+  /**
+   * The strain margin, NaN for none: kept as a plain number, since a field or local that holds
+   * either a number or null boxes every number stored in it (a heap allocation per verdict).
+   */
+  strainValue = NaN
+  get strainMargin(): number | null { return Number.isNaN(this.strainValue) ? null : this.strainValue }
   footprintMargin: number | null = null
   objective = -Infinity
   banded = false
@@ -364,7 +369,7 @@ export class CandidateJudge {
       this.ok = true
       this.objective = Infinity
       this.windowMargin = Infinity
-      this.strainMargin = null
+      this.strainValue = NaN
       return true
     }
     const fpMargin = this.footprintAndNominal(params)
@@ -538,44 +543,46 @@ export class CandidateJudge {
       margin = -Infinity
       binding = -2
     } else {
-      for (let i = 0; i < this.boundKey.length; i++) {
-        const m = this.boundMargin(i)
+      // each bound's margin on the raw band (an empty value is null, a key the estimator lacks
+      // undefined), inline: a number returned from a call V8 does not inline is boxed on the heap
+      const { boundKey, slotOf, boundSide, boundSign, boundValue, boundScale, boundUnbounded, boundBestWhenOptimistic, optimistic } = this
+      for (let i = 0; i < boundKey.length; i++) {
+        const k = boundKey[i]
+        let m: number
+        if (slotOf[k] < 0) m = -Infinity
+        // a band may turn empty where its nominal is not: an unbounded minimum is then met at best
+        else if (optimistic && boundBestWhenOptimistic[i]) m = MARGIN_LIMIT
+        else {
+          const lowV = low[k]
+          const highV = high[k]
+          const side = boundSide[i]
+          if (Number.isNaN(lowV) || Number.isNaN(highV)) {
+            m = boundUnbounded[i] && Number.isNaN(lowV) && Number.isNaN(highV) ? (side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT) : -Infinity
+          } else {
+            const up = boundSign[i] === 1
+            m = sideMargin(side, up ? lowV : -highV, up ? highV : -lowV, boundValue[i], boundScale[i])
+          }
+        }
         if (m < margin || binding === -1) { margin = m; binding = i }
       }
     }
     const sk = this.safetyKey
-    const sf = sk >= 0 && this.slotOf[sk] >= 0 && !Number.isNaN(low[sk]) && !(this.optimistic && !this.emptyFixed[sk]) ? low[sk] : null
-    const strainMargin = sf === null ? null : sf - 1
+    // NaN for no safety factor (not null: see strainValue)
+    const sf = sk >= 0 && this.slotOf[sk] >= 0 && !Number.isNaN(low[sk]) && !(this.optimistic && !this.emptyFixed[sk]) ? low[sk] : NaN
+    const strainMargin = sf - 1
     // the shared strain rule (window/rule.ts): a working range ends at a factor of 1 by construction
-    const strainOk = sf === null || strainHolds(sf, this.strainBasis)
+    const strainOk = Number.isNaN(sf) || strainHolds(sf, this.strainBasis)
     const windowOk = margin >= 0
     let objective = margin
-    if (strainMargin !== null && !strainOk && strainMargin < objective) objective = strainMargin
+    if (!strainOk && strainMargin < objective) objective = strainMargin
     if (fpMargin !== null && fpMargin < objective) objective = fpMargin
     this.ok = windowOk && strainOk
     this.reason = !windowOk ? (binding === -2 ? 'bistable' : c.bounds[binding].id) : !strainOk ? 'strain' : null
     this.windowMargin = margin
-    this.strainMargin = strainMargin
+    this.strainValue = strainMargin
     this.footprintMargin = fpMargin
     this.objective = objective
     this.banded = banded
-  }
-
-  /** boundMargin() on the raw band: an empty value is null, a key the estimator lacks is undefined. */
-  private boundMargin(i: number): number {
-    const k = this.boundKey[i]
-    if (this.slotOf[k] < 0) return -Infinity
-    // a band may turn empty where its nominal is not: an unbounded minimum is then met at best
-    if (this.optimistic && this.boundBestWhenOptimistic[i]) return MARGIN_LIMIT
-    const lowV = this.low[k]
-    const highV = this.high[k]
-    const side = this.boundSide[i]
-    if (Number.isNaN(lowV) || Number.isNaN(highV)) {
-      if (this.boundUnbounded[i] && Number.isNaN(lowV) && Number.isNaN(highV)) return side === 'min' ? MARGIN_LIMIT : -MARGIN_LIMIT
-      return -Infinity
-    }
-    const up = this.boundSign[i] === 1
-    return sideMargin(side, up ? lowV : -highV, up ? highV : -lowV, this.boundValue[i], this.boundScale[i])
   }
 
   /**
@@ -609,7 +616,7 @@ export class CandidateJudge {
     this.ok = false
     this.reason = reason
     this.windowMargin = objective
-    this.strainMargin = null
+    this.strainValue = NaN
     this.footprintMargin = fpMargin
     this.objective = objective
     this.banded = false
@@ -624,7 +631,7 @@ export class CandidateJudge {
     this.ok = s.ok
     this.reason = s.reason
     this.windowMargin = s.windowMargin
-    this.strainMargin = s.strainMargin
+    this.strainValue = s.strainMargin ?? NaN
     this.footprintMargin = s.footprintMargin
     this.objective = s.objective
     this.banded = s.banded

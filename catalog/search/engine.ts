@@ -158,9 +158,11 @@ function unitsOf(window: ForceWindow, shelf: Shelf, families: readonly FamilyDef
 
 /** Step 2: every unit sampled, refined and its best kept (run.accepted, run.best). */
 function* searchUnits(run: SearchRun): Generator<void> {
+  let grid = run.units.length ? entryGrid(run.units[0].family, run.units[0].entry, run.rules, run.budget) : null
   for (let u = 0; u < run.units.length; u++) {
     const unit = run.units[u]
-    const grid = entryGrid(unit.family, unit.entry, run.rules, run.budget)
+    // an entry's units (one per material) follow each other and share its grid, which the material does not change
+    if (!grid || (u > 0 && run.units[u - 1].entry !== unit.entry)) grid = entryGrid(unit.family, unit.entry, run.rules, run.budget)
     if (grid.problem) {
       // the same entry in another material is unprintable for the same reason: say it once
       const line = `${unit.entry.name}: ${grid.problem}`

@@ -76,9 +76,19 @@ function thin(values: number[], n: number): number[] {
  */
 type AxisBase =
   | { fixed: Axis }
-  | { fixed: null; spec: ParamSpec; kind: Exclude<AxisKind, 'fixed'>; lo: number; hi: number; fallback: number; allowed: number[] | null; step: number }
+  | { fixed: null; spec: ParamSpec; kind: Exclude<AxisKind, 'fixed'>; lo: number; hi: number; fallback: number; allowed: number[] | null; step: number; keepsDefault: boolean }
 
 function axisBase(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules): AxisBase | string {
+  const base = axisRange(spec, entry, rules)
+  if (typeof base === 'string' || base.fixed) return base
+  // The librarian's default is a proven configuration: kept on the grid when it is printable
+  // (decided once here, not for every number of levels tried)
+  const { lo, hi, fallback, allowed } = base
+  base.keepsDefault = fallback >= lo && fallback <= hi && (!allowed || allowed.some((v) => Math.abs(v - fallback) < 1e-9))
+  return base
+}
+
+function axisRange(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules): AxisBase | string {
   const given = entry.defaultParams[spec.key]
   const fallback = typeof given === 'number' ? given : spec.default
   const range = entry.ranges[spec.key]
@@ -89,28 +99,36 @@ function axisBase(spec: ParamSpec, entry: ShelfEntry, rules: PrinterRules): Axis
   if (spec.role === 'wall') {
     const walls = printableWalls(rules, lo, hi)
     if (!walls.length) return `${spec.label} ${lo}–${hi} ${spec.unit} holds no printable wall on a ${rules.nozzle} mm nozzle (at least ${rules.minimumWall} mm, in ${rules.lineWidth} mm perimeters)`
-    return { fixed: null, spec, kind: 'wall', lo, hi, fallback, allowed: walls, step: rules.lineWidth }
+    return { fixed: null, spec, kind: 'wall', lo, hi, fallback, allowed: walls, step: rules.lineWidth, keepsDefault: false }
   }
   if ((PRINT_HEIGHT_KEYS as readonly string[]).includes(spec.key)) {
     const heights = printableHeights(rules, lo, hi)
-    if (heights.length) return { fixed: null, spec, kind: 'height', lo, hi, fallback, allowed: heights, step: rules.layer }
+    if (heights.length) return { fixed: null, spec, kind: 'height', lo, hi, fallback, allowed: heights, step: rules.layer, keepsDefault: false }
   }
   if (spec.integer) {
     const counts: number[] = []
     for (let n = Math.ceil(lo); n <= hi; n++) counts.push(n)
-    return { fixed: null, spec, kind: 'count', lo, hi, fallback, allowed: counts, step: 1 }
+    return { fixed: null, spec, kind: 'count', lo, hi, fallback, allowed: counts, step: 1, keepsDefault: false }
   }
-  return { fixed: null, spec, kind: 'continuous', lo, hi, fallback, allowed: null, step: spec.step }
+  return { fixed: null, spec, kind: 'continuous', lo, hi, fallback, allowed: null, step: spec.step, keepsDefault: false }
 }
 
 function axisOf(base: Exclude<AxisBase, { fixed: Axis }>, maxLevels: number): Axis {
   const { spec, kind, lo, hi, fallback, allowed, step } = base
   const values = allowed ? thin(allowed, maxLevels) : levels(spec, lo, hi, maxLevels)
-  // The librarian's default is a proven configuration: keep it on the grid when it is printable.
-  const withDefault = fallback >= lo && fallback <= hi && (!allowed || allowed.some((v) => Math.abs(v - fallback) < 1e-9)) && !values.includes(fallback)
-    ? [...values, fallback].sort((a, b) => a - b)
-    : values
-  return { spec, kind, lo, hi, values: withDefault, step }
+  return { spec, kind, lo, hi, values: base.keepsDefault && !values.includes(fallback) ? withValue(values, fallback) : values, step }
+}
+
+/** A sorted list with one more value in its place (a copy). */
+function withValue(sorted: readonly number[], value: number): number[] {
+  const out: number[] = []
+  let placed = false
+  for (const v of sorted) {
+    if (!placed && value < v) { out.push(value); placed = true }
+    out.push(v)
+  }
+  if (!placed) out.push(value)
+  return out
 }
 
 /** Largest levels per axis (at most 9) whose full grid fits the budget. */
