@@ -15,7 +15,7 @@
 import type { BendingMaterial } from '../mechanics/wide-beam'
 import { MODULUS_RANGE } from '../tolerance/corners'
 import type { FamilyDefinition, MetricValue } from '../schema/types'
-import { MARGIN_LIMIT, scoreBand, sideMargin, strainBasis, strainHolds, type CompiledWindow, type StrainBasis } from '../window'
+import { MARGIN_LIMIT, scoreBand, sideMargin, strainBasis, strainFloor, strainHolds, type CompiledWindow } from '../window'
 import type { ForceWindow, ManufacturingTolerance } from '../window/schema'
 import type { Estimate, EstimateLayout, FastEstimator, FillFn } from './estimators'
 
@@ -234,6 +234,12 @@ export class CandidateJudge {
   private readonly boundUnbounded: Uint8Array
   /** Per bound: an optimistic bound meets it at best (an unbounded minimum on a key whose emptiness changes with the walls). */
   private readonly boundBestWhenOptimistic: Uint8Array
+  /**
+   * Whether bound()'s optimistic verdict is the nominal verdict itself: no bound of the window
+   * is met at best when optimistic, and the safety factor's emptiness does not change with the
+   * walls (or there is none). judgeBounded() then takes it instead of judging the nominal again.
+   */
+  private readonly boundIsVerdict: boolean
   private readonly secondKey: number
   private readonly bistableKey: number
   private readonly safetyKey: number
@@ -243,11 +249,14 @@ export class CandidateJudge {
   private savedBox = new Float64Array(8)
   private readonly thicknessSigns: readonly number[]
   private readonly modulusScales: readonly number[]
-  /** Which strain rule applies (window/rule.ts), from the estimate's metric keys. */
-  private readonly strainBasis: StrainBasis
+  /**
+   * The least passing safety factor of the strain rule that applies (window/rule.ts, from the
+   * estimate's metric keys), read once: calling the rule per verdict boxed the factor.
+   */
+  private readonly strainFloor: number
 
   constructor(readonly ctx: CandidateContext, readonly keys: string[]) {
-    this.strainBasis = strainBasis(ctx.estimator.layout?.keys ?? keys)
+    this.strainFloor = strainFloor(strainBasis(ctx.estimator.layout?.keys ?? keys))
     this.fill = ctx.estimator.fill ?? null
     this.layout = ctx.estimator.layout ?? null
     const n = keys.length
@@ -278,6 +287,8 @@ export class CandidateJudge {
     this.boundScale = Float64Array.from(bounds, (b) => b.scale)
     this.boundUnbounded = Uint8Array.from(bounds, (b) => (b.nullMeans === 'unbounded' ? 1 : 0))
     this.boundBestWhenOptimistic = Uint8Array.from(bounds, (b, i) => (b.nullMeans === 'unbounded' && b.side === 'min' && !this.emptyFixed[this.boundKey[i]] ? 1 : 0))
+    const sk = this.safetyKey
+    this.boundIsVerdict = this.boundBestWhenOptimistic.every((best) => !best) && (sk < 0 || this.slotOf[sk] < 0 || this.emptyFixed[sk] === 1)
     this.savedWalls = new Float64Array(ctx.walls.length)
     this.emptySeen = new Uint8Array(n)
     this.valueSeen = new Uint8Array(n)
@@ -306,7 +317,7 @@ export class CandidateJudge {
     if (this.rulesFail(params)) return this.reject(Stage.Rules, 'rules', -Infinity, null)
     // bound() stopped at the footprint or the estimate: that verdict stands (its fields are kept)
     if (this.stage === Stage.Footprint || this.stage === Stage.Model) return false
-    return this.fromNominal(params, this.footprintMargin)
+    return this.fromNominal(params, this.footprintMargin, this.boundIsVerdict)
   }
 
   private rulesFail(params: Record<string, number>): boolean {
@@ -315,17 +326,22 @@ export class CandidateJudge {
     return false
   }
 
-  /** The verdict from the nominal estimate in `nominal` on: nominal first, then the band. */
-  private fromNominal(params: Record<string, number>, fpMargin: number | null): boolean {
+  /**
+   * The verdict from the nominal estimate in `nominal` on: nominal first, then the band.
+   * `nominalJudged`: the fields and the band already hold the nominal verdict (bound() gave it, see boundIsVerdict).
+   */
+  private fromNominal(params: Record<string, number>, fpMargin: number | null, nominalJudged = false): boolean {
     const ctx = this.ctx
     const { low, high, slotOf, nominal } = this
-    for (let k = 0; k < slotOf.length; k++) {
-      const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN
-      low[k] = v
-      high[k] = v
+    if (!nominalJudged) {
+      for (let k = 0; k < slotOf.length; k++) {
+        const v = slotOf[k] >= 0 ? nominal[slotOf[k]] : NaN
+        low[k] = v
+        high[k] = v
+      }
+      // The band contains its nominal point: a nominal outside the window settles it.
+      this.verdict(fpMargin, false)
     }
-    // The band contains its nominal point: a nominal outside the window settles it.
-    this.verdict(fpMargin, false)
     if (!this.ok) { this.stage = Stage.Nominal; return false }
 
     const scales = this.modulusScales
@@ -571,7 +587,7 @@ export class CandidateJudge {
     const sf = sk >= 0 && this.slotOf[sk] >= 0 && !Number.isNaN(low[sk]) && !(this.optimistic && !this.emptyFixed[sk]) ? low[sk] : NaN
     const strainMargin = sf - 1
     // the shared strain rule (window/rule.ts): a working range ends at a factor of 1 by construction
-    const strainOk = Number.isNaN(sf) || strainHolds(sf, this.strainBasis)
+    const strainOk = Number.isNaN(sf) || sf >= this.strainFloor
     const windowOk = margin >= 0
     let objective = margin
     if (!strainOk && strainMargin < objective) objective = strainMargin

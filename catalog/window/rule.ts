@@ -42,8 +42,12 @@ export function strainBasis(metricKeys: Iterable<string>): StrainBasis {
 /** Rounding allowance on a working range's factor of 1 (interpolated at the limit). */
 const RANGE_LIMIT_SLACK = 1e-6
 
+/** The least strain safety factor that passes: 1, less the rounding slack for a working range. */
+export function strainFloor(basis: StrainBasis): number {
+  return basis === 'working-range' ? 1 - RANGE_LIMIT_SLACK : 1
+}
+
 /** Whether a (worst-case) strain safety factor passes: ≥ 1, with the rounding slack for a working range. */
 export function strainHolds(safetyFactor: number, basis: StrainBasis | Iterable<string>): boolean {
-  const b = typeof basis === 'string' ? basis : strainBasis(basis)
-  return b === 'working-range' ? safetyFactor >= 1 - RANGE_LIMIT_SLACK : safetyFactor >= 1
+  return safetyFactor >= strainFloor(typeof basis === 'string' ? (basis as StrainBasis) : strainBasis(basis))
 }
