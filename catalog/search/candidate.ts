@@ -243,10 +243,14 @@ export class CandidateJudge {
   private readonly secondKey: number
   private readonly bistableKey: number
   private readonly safetyKey: number
-  /** The walls' own values while a thickness corner is estimated in their place. */
-  private readonly savedWalls: Float64Array
+  /**
+   * The walls' own values while a thickness corner is estimated in their place: a plain array
+   * of tagged values (it starts with nulls), so a value read from params is put back as the same
+   * heap number; a typed array unboxed it, and putting it back allocated a new one.
+   */
+  private readonly savedWalls: Array<number | null>
   /** A box's own values while its corners are estimated in their place. */
-  private savedBox = new Float64Array(8)
+  private savedBox: Array<number | null> = new Array(8).fill(null)
   private readonly thicknessSigns: readonly number[]
   private readonly modulusScales: readonly number[]
   /**
@@ -289,7 +293,7 @@ export class CandidateJudge {
     this.boundBestWhenOptimistic = Uint8Array.from(bounds, (b, i) => (b.nullMeans === 'unbounded' && b.side === 'min' && !this.emptyFixed[this.boundKey[i]] ? 1 : 0))
     const sk = this.safetyKey
     this.boundIsVerdict = this.boundBestWhenOptimistic.every((best) => !best) && (sk < 0 || this.slotOf[sk] < 0 || this.emptyFixed[sk] === 1)
-    this.savedWalls = new Float64Array(ctx.walls.length)
+    this.savedWalls = ctx.walls.map(() => null)
     this.emptySeen = new Uint8Array(n)
     this.valueSeen = new Uint8Array(n)
     const { thickness: dt, modulus: dE } = ctx.tolerance
@@ -354,10 +358,10 @@ export class CandidateJudge {
         for (let i = 0; i < walls.length; i++) {
           const w = walls[i]
           saved[i] = params[w.key]
-          params[w.key] = Math.min(w.max, Math.max(w.min, saved[i] + ts * dt))
+          params[w.key] = Math.min(w.max, Math.max(w.min, (saved[i] as number) + ts * dt))
         }
         const estimated = this.estimate(params, this.corner)
-        for (let i = 0; i < walls.length; i++) params[walls[i].key] = saved[i]
+        for (let i = 0; i < walls.length; i++) params[walls[i].key] = saved[i] as number
         if (!estimated) return this.reject(Stage.Model, 'model', -Infinity, fpMargin)
         values = this.corner
       }
@@ -420,10 +424,11 @@ export class CandidateJudge {
     const { low, high, slotOf, booleanKey, emptySeen } = this
     const n = keys.length
     // the corners are set in params itself and the box's own values put back at the end
-    const saved = this.savedBox.length >= n ? this.savedBox : (this.savedBox = new Float64Array(n))
+    // tagged, as savedWalls: the values go back as the heap numbers they were
+    const saved = this.savedBox.length >= n ? this.savedBox : (this.savedBox = new Array(n).fill(null))
     for (let i = 0; i < n; i++) saved[i] = params[keys[i]]
     const bounded = this.boxHull(params, keys, lows, highs)
-    for (let i = 0; i < n; i++) params[keys[i]] = saved[i]
+    for (let i = 0; i < n; i++) params[keys[i]] = saved[i] as number
     if (!bounded) return null
     // optimistic: each bound scored at the hull's better end (sideMargin reads the low end of a
     // minimum and the high end of a maximum), so the ends are swapped and widened; a key empty
