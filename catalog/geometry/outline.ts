@@ -297,7 +297,6 @@ function snapLoop(epsilon: number): (loop: Point[]) => Point[] {
 function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number): Geom3 {
   const top = heightSteps * epsilon
   const triangles: Array<ReturnType<typeof geometries.poly3.create>> = []
-  const tri = (a: [number, number, number], b: [number, number, number], c: [number, number, number]) => triangles.push(geometries.poly3.create([a, b, c]))
   for (const rings of polygons) {
     const flat: number[] = []
     const holeStarts: number[] = []
@@ -305,31 +304,39 @@ function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number
       if (r > 0) holeStarts.push(flat.length / 2)
       for (const [x, y] of rings[r]) flat.push(x, y)
     }
+    // each outline point's two corners, shared by the caps' and the walls' triangles (JSCAD
+    // never changes a vertex in place), rather than new arrays for every triangle that meets there
+    const low: Vertex[] = [], high: Vertex[] = []
+    for (let n = 0; n < flat.length; n += 2) {
+      const x = flat[n] * epsilon, y = flat[n + 1] * epsilon
+      low.push([x, y, 0])
+      high.push([x, y, top])
+    }
     const indices = conformCap(flat, rings, earcut(flat, holeStarts.length ? holeStarts : null))
     for (let k = 0; k < indices.length; k += 3) {
       let i = indices[k], j = indices[k + 1]
       const l = indices[k + 2]
       // wound counter-clockwise in the plane for the top cap
       if ((flat[2 * j] - flat[2 * i]) * (flat[2 * l + 1] - flat[2 * i + 1]) - (flat[2 * j + 1] - flat[2 * i + 1]) * (flat[2 * l] - flat[2 * i]) < 0) [i, j] = [j, i]
-      const xi = flat[2 * i] * epsilon, yi = flat[2 * i + 1] * epsilon
-      const xj = flat[2 * j] * epsilon, yj = flat[2 * j + 1] * epsilon
-      const xl = flat[2 * l] * epsilon, yl = flat[2 * l + 1] * epsilon
-      tri([xi, yi, top], [xj, yj, top], [xl, yl, top])
-      tri([xi, yi, 0], [xl, yl, 0], [xj, yj, 0])
+      triangles.push(geometries.poly3.create([high[i], high[j], high[l]]), geometries.poly3.create([low[i], low[l], low[j]]))
     }
+    let start = 0
     for (let r = 0; r < rings.length; r++) {
       // outer loops run counter-clockwise and holes clockwise: the material is on the left
-      const ring = orient(rings[r], r === 0 ? 1 : -1)
-      for (let k = 0; k < ring.length; k++) {
-        const a = ring[k], b = ring[(k + 1) % ring.length]
-        const ax = a[0] * epsilon, ay = a[1] * epsilon, bx = b[0] * epsilon, by = b[1] * epsilon
-        tri([ax, ay, 0], [bx, by, 0], [bx, by, top])
-        tri([ax, ay, 0], [bx, by, top], [ax, ay, top])
+      const length = rings[r].length
+      const forward = Math.sign(twiceArea(rings[r])) === (r === 0 ? 1 : -1)
+      for (let k = 0; k < length; k++) {
+        const a = start + (forward ? k : length - 1 - k)
+        const b = start + (forward ? (k + 1) % length : (2 * length - 2 - k) % length)
+        triangles.push(geometries.poly3.create([low[a], low[b], high[b]]), geometries.poly3.create([low[a], high[b], high[a]]))
       }
+      start += length
     }
   }
   return geometries.geom3.create(triangles)
 }
+
+type Vertex = [number, number, number]
 
 /**
  * Removes the T-junctions of a cap's triangulation: where a hole touches the outer loop or
@@ -343,9 +350,9 @@ function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number
  */
 function conformCap(flat: number[], rings: Point[][], indices: number[]): number[] {
   // edges are keyed by the vertices' coordinates, not their indices: where the outline touches
-  // itself one grid point stands at two indices. Each point gets one id, and an edge the number
-  // a·2^21 + b, so no key is a string: a point is keyed by its grid steps from the cap's lowest
-  // corner, fewer than the 3/EPSILON_PER_SIZE steps of the part's box sides (below 2^21).
+  // itself one grid point stands at two indices. Each point gets one id, keyed by the number
+  // x·2^21 + y of its grid steps from the cap's lowest corner (fewer than the 3/EPSILON_PER_SIZE
+  // steps of the part's box sides, below 2^21), so no key is a string.
   let x0 = Infinity, y0 = Infinity
   for (let n = 0; n < flat.length; n += 2) { x0 = Math.min(x0, flat[n]); y0 = Math.min(y0, flat[n + 1]) }
   const ids = new Map<number, number>()
@@ -357,41 +364,44 @@ function conformCap(flat: number[], rings: Point[][], indices: number[]): number
     idAt[n] = id
   }
   const pointId = (p: Point) => ids.get((p[0] - x0) * GRID_SPAN + (p[1] - y0))!
-  const edge = (a: number, b: number) => a * GRID_SPAN + b
+  // an edge between point ids: below 2^30 for caps of up to 2^15 points, so a small integer
+  // the Set hashes directly (a larger base made every key a heap number)
+  const count = ids.size
+  const edge = (a: number, b: number) => a * count + b
   const tris = [...indices]
   // the outline's edges, the way the walls match them: outer loops clockwise, holes counter-clockwise as seen by the cap
-  const boundary = new Map<number, number>()
+  const boundary: number[] = []
   for (let r = 0; r < rings.length; r++) {
     const ring = orient(rings[r], r === 0 ? 1 : -1)
-    for (let k = 0; k < ring.length; k++) {
-      const e = edge(pointId(ring[(k + 1) % ring.length]), pointId(ring[k]))
-      boundary.set(e, (boundary.get(e) ?? 0) + 1)
-    }
+    for (let k = 0; k < ring.length; k++) boundary.push(edge(pointId(ring[(k + 1) % ring.length]), pointId(ring[k])))
   }
   const corners = new Int32Array(3)
   for (let pass = 0; pass < 16; pass++) {
     // every directed edge of the cap, the walls' partners of the outline included: a triangle's
     // edge a→b is matched when b→a is among them, by a neighbour or by the wall
-    const present = new Set<number>(boundary.keys())
+    const present = new Set<number>(boundary)
     for (let t = 0; t < tris.length; t += 3) {
       // counter-clockwise in the plane, as the top cap is written
       ccwInto(corners, flat, tris[t], tris[t + 1], tris[t + 2])
       for (let k = 0; k < 3; k++) present.add(edge(idAt[corners[k]], idAt[corners[(k + 1) % 3]]))
     }
-    // the unmatched edges, where a T-junction leaves an edge running past a vertex; the vertex
-    // may be any of the cap's (one where the outline touches itself ends no loose edge), looked
-    // at in the order the triangles name them
+    // the unmatched edges, where a T-junction leaves an edge running past a vertex
     const loose: Array<[number, number, number]> = []
-    const ends = new Set<number>()
     for (let t = 0; t < tris.length; t += 3) {
       ccwInto(corners, flat, tris[t], tris[t + 1], tris[t + 2])
       for (let k = 0; k < 3; k++) {
         const a = corners[k], b = corners[(k + 1) % 3]
-        ends.add(a); ends.add(b)
         if (!present.has(edge(idAt[b], idAt[a]))) loose.push([t, a, b])
       }
     }
     if (!loose.length) return tris
+    // the vertex may be any of the cap's (one where the outline touches itself ends no loose
+    // edge), looked at in the order the triangles name them
+    const ends = new Set<number>()
+    for (let t = 0; t < tris.length; t += 3) {
+      ccwInto(corners, flat, tris[t], tris[t + 1], tris[t + 2])
+      for (let k = 0; k < 3; k++) { ends.add(corners[k]); ends.add(corners[(k + 1) % 3]) }
+    }
     let split = false
     const done = new Set<number>()
     for (const [t, a, b] of loose) {
@@ -433,10 +443,15 @@ function ccw(flat: number[], i: number, j: number, l: number): [number, number, 
 
 /** The loop wound counter-clockwise (sense 1) or clockwise (−1). */
 function orient(loop: Point[], sense: 1 | -1): Point[] {
+  return Math.sign(twiceArea(loop)) === sense ? loop : [...loop].reverse()
+}
+
+/** Twice the loop's signed area (positive counter-clockwise). */
+function twiceArea(loop: Point[]): number {
   let twice = 0
   for (let k = 0; k < loop.length; k++) {
     const a = loop[k], b = loop[(k + 1) % loop.length]
     twice += a[0] * b[1] - b[0] * a[1]
   }
-  return Math.sign(twice) === sense ? loop : [...loop].reverse()
+  return twice
 }

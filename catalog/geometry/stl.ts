@@ -48,6 +48,11 @@ export interface SnappedMesh {
   readonly vertices: readonly number[]
   /** Three vertex indices per triangle, in the solid's own order and winding. */
   readonly triangles: Int32Array
+  /**
+   * Unit normal per triangle (x, y, z), as JSCAD's poly3.plane gives it for the snapped
+   * corners: worked out once for the area check and written by the STL as it is.
+   */
+  readonly normals: Float64Array
 }
 
 /**
@@ -86,6 +91,7 @@ function buildSnappedMesh(solid: Geom3): SnappedMesh | null {
   const ids = new Map<number, number>()
   const vertices: number[] = []
   const triangles = new Int32Array(3 * polygons.length)
+  const normals = new Float64Array(3 * polygons.length)
   const corner: Vertex[] = [[0, 0, 0], [0, 0, 0], [0, 0, 0]]
   for (let t = 0; t < polygons.length; t++) {
     const p = polygons[t]
@@ -104,9 +110,13 @@ function buildSnappedMesh(solid: Geom3): SnappedMesh | null {
       triangles[3 * t + k] = id
       corner[k] = [vertices[3 * id], vertices[3 * id + 1], vertices[3 * id + 2]]
     }
-    if (!(Math.abs(geometries.poly3.measureArea(geometries.poly3.create(corner))) > minArea)) return null
+    const snapped = geometries.poly3.create(corner)
+    if (!(Math.abs(geometries.poly3.measureArea(snapped)) > minArea)) return null
+    // the plane measureArea has just computed (poly3.plane keeps it on the polygon)
+    const normal = geometries.poly3.plane(snapped)
+    normals[3 * t] = normal[0]; normals[3 * t + 1] = normal[1]; normals[3 * t + 2] = normal[2]
   }
-  return edgesPaired(triangles, ids.size) ? { vertices, triangles } : null
+  return edgesPaired(triangles, ids.size) ? { vertices, triangles, normals } : null
 }
 
 /**
@@ -131,7 +141,7 @@ function edgesPaired(triangles: Int32Array, vertexCount: number): boolean {
 
 type Vertex = [number, number, number]
 
-function writeTriangles({ vertices, triangles }: SnappedMesh): Uint8Array {
+function writeTriangles({ vertices, triangles, normals }: SnappedMesh): Uint8Array {
   const count = triangles.length / 3
   const out = new Uint8Array(84 + 50 * count)
   out.fill(65, 0, 80)
@@ -139,20 +149,15 @@ function writeTriangles({ vertices, triangles }: SnappedMesh): Uint8Array {
   view.setUint32(80, count, true)
   let at = 84
   for (let t = 0; t < triangles.length; t += 3) {
-    const corner: Vertex[] = []
+    view.setFloat32(at, normals[t], true)
+    view.setFloat32(at + 4, normals[t + 1], true)
+    view.setFloat32(at + 8, normals[t + 2], true)
+    at += 12
     for (let k = 0; k < 3; k++) {
       const i = 3 * triangles[t + k]
-      corner.push([vertices[i], vertices[i + 1], vertices[i + 2]])
-    }
-    const plane = geometries.poly3.plane(geometries.poly3.create(corner))
-    view.setFloat32(at, plane[0], true)
-    view.setFloat32(at + 4, plane[1], true)
-    view.setFloat32(at + 8, plane[2], true)
-    at += 12
-    for (const v of corner) {
-      view.setFloat32(at, v[0], true)
-      view.setFloat32(at + 4, v[1], true)
-      view.setFloat32(at + 8, v[2], true)
+      view.setFloat32(at, vertices[i], true)
+      view.setFloat32(at + 4, vertices[i + 1], true)
+      view.setFloat32(at + 8, vertices[i + 2], true)
       at += 12
     }
     view.setUint16(at, 0, true)
