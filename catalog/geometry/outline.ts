@@ -325,9 +325,10 @@ function extrudeGrid(polygons: Point[][][], epsilon: number, heightSteps: number
       // outer loops run counter-clockwise and holes clockwise: the material is on the left
       const length = rings[r].length
       const forward = Math.sign(twiceArea(rings[r])) === (r === 0 ? 1 : -1)
+      // the ring's k-th point in that sense, as an index into flat (orient() without the copy)
+      const at = (k: number) => start + (forward ? k : length - 1 - k)
       for (let k = 0; k < length; k++) {
-        const a = start + (forward ? k : length - 1 - k)
-        const b = start + (forward ? (k + 1) % length : (2 * length - 2 - k) % length)
+        const a = at(k), b = at((k + 1) % length)
         triangles.push(geometries.poly3.create([low[a], low[b], high[b]]), geometries.poly3.create([low[a], high[b], high[a]]))
       }
       start += length
